@@ -1,0 +1,78 @@
+package com.example.foldline.accounts;
+
+import org.springframework.context.annotation.Bean;
+import org.springframework.context.annotation.Configuration;
+import org.springframework.http.HttpMethod;
+import org.springframework.security.config.Customizer;
+import org.springframework.security.config.annotation.web.builders.HttpSecurity;
+import org.springframework.security.core.authority.AuthorityUtils;
+import org.springframework.security.core.userdetails.User;
+import org.springframework.security.core.userdetails.UserDetailsService;
+import org.springframework.security.core.userdetails.UsernameNotFoundException;
+import org.springframework.security.crypto.factory.PasswordEncoderFactories;
+import org.springframework.security.crypto.password.PasswordEncoder;
+import org.springframework.security.web.SecurityFilterChain;
+import org.springframework.security.web.util.matcher.RequestMatcher;
+
+/**
+ * Who may call what. The event ingest endpoint authenticates by ingest key (checked by the ingest module), the
+ * rest of the API by session cookie or HTTP basic; CSRF protection applies to cookie-authenticated writes.
+ */
+@Configuration(proxyBeanMethods = false)
+class SecurityConfig {
+
+    static final String[] PUBLIC = {"/login", "/error", "/webjars/**", "/actuator/health", "/actuator/health/**",
+            "/v3/api-docs", "/v3/api-docs/**", "/swagger-ui/**", "/swagger-ui.html", "/tag.js", "/schemas/**",
+            "/favicon.ico"};
+
+    @Bean
+    SecurityFilterChain securityFilterChain(HttpSecurity http, AccountProperties properties) throws Exception {
+        http.authorizeHttpRequests(auth -> auth
+                        .requestMatchers(PUBLIC).permitAll()
+                        .requestMatchers("/api/v1/sites/*/events").permitAll()
+                        .requestMatchers(HttpMethod.POST, "/api/v1/sites").hasRole("ADMIN")
+                        .requestMatchers(HttpMethod.PUT, "/api/v1/sites/*").hasRole("ADMIN")
+                        .requestMatchers("/api/v1/sites/*/ingest-keys", "/api/v1/sites/*/ingest-keys/**").hasRole("ADMIN")
+                        .requestMatchers("/api/v1/admin/**").hasRole("ADMIN")
+                        .anyRequest().authenticated())
+                .formLogin(Customizer.withDefaults())
+                .logout(Customizer.withDefaults())
+                .csrf(csrf -> csrf.requireCsrfProtectionMatcher(cookieAuthenticatedWrite()));
+        if (properties.basicAuthEnabled()) {
+            http.httpBasic(Customizer.withDefaults());
+        }
+        return http.build();
+    }
+
+    /**
+     * A state-changing request that rides on a session cookie. Requests with their own credentials (basic, bearer)
+     * or without any session cannot be forged cross-site, so they need no token.
+     */
+    private static RequestMatcher cookieAuthenticatedWrite() {
+        return request -> {
+            String method = request.getMethod();
+            boolean safe = "GET".equals(method) || "HEAD".equals(method) || "OPTIONS".equals(method)
+                    || "TRACE".equals(method);
+            if (safe || request.getHeader("Authorization") != null || request.getRequestedSessionId() == null) {
+                return false;
+            }
+            String path = request.getRequestURI().substring(request.getContextPath().length());
+            return !path.matches("/api/v1/sites/[^/]+/events");
+        };
+    }
+
+    @Bean
+    PasswordEncoder passwordEncoder() {
+        return PasswordEncoderFactories.createDelegatingPasswordEncoder();
+    }
+
+    @Bean
+    UserDetailsService userDetailsService(UserRepository users) {
+        return username -> users.findByUsername(username)
+                .map(u -> User.withUsername(u.username()).password(u.passwordHash()).disabled(!u.enabled())
+                        .authorities(AuthorityUtils.createAuthorityList(
+                                u.globalAdmin() ? new String[]{"ROLE_USER", "ROLE_ADMIN"} : new String[]{"ROLE_USER"}))
+                        .build())
+                .orElseThrow(() -> new UsernameNotFoundException("no such user"));
+    }
+}

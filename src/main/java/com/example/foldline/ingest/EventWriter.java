@@ -1,0 +1,177 @@
+package com.example.foldline.ingest;
+
+import java.sql.PreparedStatement;
+import java.sql.SQLException;
+import java.sql.Timestamp;
+import java.sql.Types;
+import java.time.Instant;
+import java.time.LocalDate;
+import java.util.List;
+
+import org.springframework.jdbc.core.JdbcTemplate;
+import org.springframework.stereotype.Repository;
+
+import com.example.foldline.sites.Site;
+
+/**
+ * Batched, idempotent writes of validated events. Each insert skips a row whose (site, id) is already stored and
+ * reports how many rows were new, so a retried batch is counted as duplicates instead of stored twice.
+ */
+@Repository
+class EventWriter {
+
+    private final JdbcTemplate jdbc;
+
+    EventWriter(JdbcTemplate jdbc) {
+        this.jdbc = jdbc;
+    }
+
+    int pageviews(Site site, List<Event.Pageview> rows, Instant receivedAt) {
+        Timestamp received = Timestamp.from(receivedAt);
+        int[][] counts = jdbc.batchUpdate("""
+                        INSERT INTO pageview (site_id, id, ts, visitor, client_session, path, referrer, source, device,
+                                              browser, os, country, region, variant, ads, engaged_ms, received_at)
+                        VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)
+                        ON CONFLICT DO NOTHING""", rows, rows.size(), (ps, e) -> {
+                    ps.setLong(1, site.id());
+                    ps.setString(2, e.id());
+                    ps.setTimestamp(3, Timestamp.from(e.ts()));
+                    ps.setString(4, e.visitor());
+                    ps.setString(5, e.clientSession());
+                    ps.setString(6, e.path());
+                    ps.setString(7, e.referrer());
+                    segment(ps, 8, e.segment());
+                    ps.setInt(15, e.ads());
+                    setLong(ps, 16, e.engagedMs());
+                    ps.setTimestamp(17, received);
+                });
+        return stored(counts);
+    }
+
+    /** A page-end inserts, or raises the stored engaged time; an equal or smaller repeat changes nothing. */
+    int pageEnds(Site site, List<Event.PageEnd> rows, Instant receivedAt) {
+        Timestamp received = Timestamp.from(receivedAt);
+        int[][] counts = jdbc.batchUpdate("""
+                        MERGE INTO page_end t
+                        USING (VALUES (CAST(? AS BIGINT), CAST(? AS VARCHAR(64)), CAST(? AS BIGINT), CAST(? AS SMALLINT),
+                                       CAST(? AS TIMESTAMP WITH TIME ZONE)))
+                              AS s (site_id, pageview_id, engaged_ms, scroll_pct, received_at)
+                        ON t.site_id = s.site_id AND t.pageview_id = s.pageview_id
+                        WHEN MATCHED AND s.engaged_ms > t.engaged_ms THEN
+                            UPDATE SET engaged_ms = s.engaged_ms, scroll_pct = s.scroll_pct, received_at = s.received_at
+                        WHEN NOT MATCHED THEN
+                            INSERT (site_id, pageview_id, engaged_ms, scroll_pct, received_at)
+                            VALUES (s.site_id, s.pageview_id, s.engaged_ms, s.scroll_pct, s.received_at)""",
+                rows, rows.size(), (ps, e) -> {
+                    ps.setLong(1, site.id());
+                    ps.setString(2, e.pageview());
+                    ps.setLong(3, e.engagedMs());
+                    if (e.scrollPct() == null) {
+                        ps.setNull(4, Types.SMALLINT);
+                    } else {
+                        ps.setInt(4, e.scrollPct());
+                    }
+                    ps.setTimestamp(5, received);
+                });
+        return stored(counts);
+    }
+
+    int impressions(Site site, List<Event.Impression> rows, Instant receivedAt) {
+        Timestamp received = Timestamp.from(receivedAt);
+        int[][] counts = jdbc.batchUpdate("""
+                        INSERT INTO impression (site_id, id, pageview_id, slot, size, viewable, clicked, revenue_micros,
+                                                cpm_micros, received_at)
+                        VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)
+                        ON CONFLICT DO NOTHING""", rows, rows.size(), (ps, e) -> {
+                    ps.setLong(1, site.id());
+                    ps.setString(2, e.id());
+                    ps.setString(3, e.pageview());
+                    ps.setString(4, e.slot());
+                    ps.setString(5, e.size());
+                    ps.setBoolean(6, e.viewable());
+                    ps.setBoolean(7, e.clicked());
+                    ps.setLong(8, e.revenueMicros());
+                    setLong(ps, 9, e.cpmMicros());
+                    ps.setTimestamp(10, received);
+                });
+        return stored(counts);
+    }
+
+    int sessions(Site site, List<Event.Session> rows, Instant receivedAt) {
+        Timestamp received = Timestamp.from(receivedAt);
+        int[][] counts = jdbc.batchUpdate("""
+                        INSERT INTO session_fact (site_id, id, visitor, client_session, start_ts, end_ts, local_day,
+                                                  pageviews, bounce, engaged_ms, entry_path, entry_ads, later_ads,
+                                                  source, device, browser, os, country, region, variant,
+                                                  revenue_micros, impressions, viewable_impressions, clicks,
+                                                  origin, closed, updated_at)
+                        VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, 'import', TRUE, ?)
+                        ON CONFLICT DO NOTHING""", rows, rows.size(), (ps, e) -> {
+                    ps.setLong(1, site.id());
+                    ps.setString(2, e.id());
+                    ps.setString(3, e.visitor());
+                    ps.setString(4, e.clientSession());
+                    ps.setTimestamp(5, Timestamp.from(e.start()));
+                    ps.setTimestamp(6, Timestamp.from(e.end()));
+                    ps.setObject(7, LocalDate.ofInstant(e.start(), site.timezone()));
+                    ps.setInt(8, e.pageviews());
+                    ps.setBoolean(9, e.bounce() != null ? e.bounce() : isBounce(site, e.pageviews(), e.engagedMs()));
+                    ps.setLong(10, e.engagedMs());
+                    ps.setString(11, e.entryPath());
+                    ps.setInt(12, e.entryAds());
+                    if (e.laterAds() == null) {
+                        ps.setNull(13, Types.DOUBLE);
+                    } else {
+                        ps.setDouble(13, e.laterAds());
+                    }
+                    segment(ps, 14, e.segment());
+                    ps.setLong(21, e.revenueMicros());
+                    ps.setInt(22, e.impressions());
+                    ps.setInt(23, e.viewableImpressions());
+                    ps.setInt(24, e.clicks());
+                    ps.setTimestamp(25, received);
+                });
+        return stored(counts);
+    }
+
+    /** Bounce: one pageview, unless the site counts a long enough single page as engaged (docs/metrics.md). */
+    static boolean isBounce(Site site, int pageviews, long engagedMs) {
+        if (pageviews != 1) {
+            return false;
+        }
+        return site.engagedSeconds() == null || engagedMs < site.engagedSeconds() * 1000L;
+    }
+
+    private static void segment(PreparedStatement ps, int first, Event.Segment s) throws SQLException {
+        ps.setString(first, s.source());
+        ps.setString(first + 1, s.device());
+        ps.setString(first + 2, s.browser());
+        ps.setString(first + 3, s.os());
+        ps.setString(first + 4, s.country());
+        ps.setString(first + 5, s.region());
+        ps.setString(first + 6, s.variant());
+    }
+
+    private static void setLong(PreparedStatement ps, int index, Long value) throws SQLException {
+        if (value == null) {
+            ps.setNull(index, Types.BIGINT);
+        } else {
+            ps.setLong(index, value);
+        }
+    }
+
+    private static int stored(int[][] counts) {
+        int n = 0;
+        for (int[] batch : counts) {
+            for (int c : batch) {
+                if (c > 0) {
+                    n += c;
+                } else if (c == PreparedStatement.SUCCESS_NO_INFO) {
+                    throw new IllegalStateException("the JDBC driver did not report row counts; idempotent ingest "
+                            + "needs them (do not enable reWriteBatchedInserts)");
+                }
+            }
+        }
+        return n;
+    }
+}
