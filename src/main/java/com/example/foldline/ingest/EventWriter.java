@@ -5,8 +5,11 @@ import java.sql.SQLException;
 import java.sql.Timestamp;
 import java.sql.Types;
 import java.time.Instant;
-import java.time.LocalDate;
+import java.time.ZonedDateTime;
+import java.util.ArrayList;
 import java.util.List;
+import java.util.Map;
+import java.util.Set;
 
 import org.springframework.jdbc.core.JdbcTemplate;
 import org.springframework.stereotype.Repository;
@@ -101,11 +104,11 @@ class EventWriter {
         Timestamp received = Timestamp.from(receivedAt);
         int[][] counts = jdbc.batchUpdate("""
                         INSERT INTO session_fact (site_id, id, visitor, client_session, start_ts, end_ts, local_day,
-                                                  pageviews, bounce, engaged_ms, entry_path, entry_ads, later_ads,
+                                                  local_hour, page_detail, pageviews, bounce, engaged_ms, entry_path, entry_ads, later_ads,
                                                   source, device, browser, os, country, region, variant,
                                                   revenue_micros, impressions, viewable_impressions, clicks,
                                                   origin, closed, updated_at)
-                        VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, 'import', TRUE, ?)
+                        VALUES (?, ?, ?, ?, ?, ?, ?, ?, '', ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, 'import', TRUE, ?)
                         ON CONFLICT DO NOTHING""", rows, rows.size(), (ps, e) -> {
                     ps.setLong(1, site.id());
                     ps.setString(2, e.id());
@@ -113,25 +116,41 @@ class EventWriter {
                     ps.setString(4, e.clientSession());
                     ps.setTimestamp(5, Timestamp.from(e.start()));
                     ps.setTimestamp(6, Timestamp.from(e.end()));
-                    ps.setObject(7, LocalDate.ofInstant(e.start(), site.timezone()));
-                    ps.setInt(8, e.pageviews());
-                    ps.setBoolean(9, e.bounce() != null ? e.bounce() : isBounce(site, e.pageviews(), e.engagedMs()));
-                    ps.setLong(10, e.engagedMs());
-                    ps.setString(11, e.entryPath());
-                    ps.setInt(12, e.entryAds());
+                    ZonedDateTime local = e.start().atZone(site.timezone());
+                    ps.setObject(7, local.toLocalDate());
+                    ps.setInt(8, local.getHour());
+                    ps.setInt(9, e.pageviews());
+                    ps.setBoolean(10, e.bounce() != null ? e.bounce() : isBounce(site, e.pageviews(), e.engagedMs()));
+                    ps.setLong(11, e.engagedMs());
+                    ps.setString(12, e.entryPath());
+                    ps.setInt(13, e.entryAds());
                     if (e.laterAds() == null) {
-                        ps.setNull(13, Types.DOUBLE);
+                        ps.setNull(14, Types.DOUBLE);
                     } else {
-                        ps.setDouble(13, e.laterAds());
+                        ps.setDouble(14, e.laterAds());
                     }
-                    segment(ps, 14, e.segment());
-                    ps.setLong(21, e.revenueMicros());
-                    ps.setInt(22, e.impressions());
-                    ps.setInt(23, e.viewableImpressions());
-                    ps.setInt(24, e.clicks());
-                    ps.setTimestamp(25, received);
+                    segment(ps, 15, e.segment());
+                    ps.setLong(22, e.revenueMicros());
+                    ps.setInt(23, e.impressions());
+                    ps.setInt(24, e.viewableImpressions());
+                    ps.setInt(25, e.clicks());
+                    ps.setTimestamp(26, received);
                 });
         return stored(counts);
+    }
+
+    /**
+     * Tells the sessionizer what changed: each visitor with new pageviews (earliest time), and each pageview whose
+     * page-end or impressions arrived. Written in the ingest transaction, so no committed event is missed.
+     */
+    void inbox(Site site, Map<String, Instant> visitors, Set<String> pageviewIds) {
+        List<Object[]> rows = new ArrayList<>(visitors.size() + pageviewIds.size());
+        visitors.forEach((visitor, ts) -> rows.add(new Object[]{site.id(), visitor, null, Timestamp.from(ts)}));
+        pageviewIds.forEach(id -> rows.add(new Object[]{site.id(), null, id, null}));
+        if (!rows.isEmpty()) {
+            jdbc.batchUpdate("INSERT INTO session_inbox (site_id, visitor, pageview_id, ts) VALUES (?, ?, ?, ?)",
+                    rows, new int[]{Types.BIGINT, Types.VARCHAR, Types.VARCHAR, Types.TIMESTAMP});
+        }
     }
 
     /** Bounce: one pageview, unless the site counts a long enough single page as engaged (docs/metrics.md). */

@@ -6,6 +6,10 @@ import java.io.UncheckedIOException;
 import java.time.Clock;
 import java.time.Instant;
 import java.util.ArrayList;
+import java.util.HashMap;
+import java.util.HashSet;
+import java.util.Map;
+import java.util.Set;
 import java.util.List;
 
 import org.springframework.context.ApplicationEventPublisher;
@@ -132,6 +136,12 @@ public class IngestService {
         }
 
         void flush() {
+            Map<String, Instant> visitors = new HashMap<>();
+            Set<String> pages = new HashSet<>();
+            pageviews.forEach(p -> visitors.merge(p.visitor(), p.ts(), (a, b) -> a.isBefore(b) ? a : b));
+            pageEnds.forEach(e -> pages.add(e.pageview()));
+            impressions.forEach(i -> pages.add(i.pageview()));
+            writer.inbox(site, visitors, pages);
             if (!pageviews.isEmpty()) {
                 pageviewsStored += writer.pageviews(site, pageviews, now);
                 pageviews.clear();

@@ -64,10 +64,11 @@ class SiteRepository {
     }
 
     private static Site map(ResultSet rs, int row) throws SQLException {
-        int engaged = rs.getInt("engaged_seconds");
+        int engagedValue = rs.getInt("engaged_seconds");
+        Integer engaged = rs.wasNull() ? null : engagedValue;
         return new Site(rs.getLong("id"), rs.getString("name"), rs.getString("domain"),
                 ZoneId.of(rs.getString("timezone")), rs.getString("currency").trim(),
-                rs.getInt("session_timeout_minutes"), rs.wasNull() ? null : engaged, rs.getInt("retention_days"),
+                rs.getInt("session_timeout_minutes"), engaged, rs.getInt("retention_days"),
                 rs.getTimestamp("created_at").toInstant());
     }
 }

@@ -1,0 +1,186 @@
+package com.example.foldline.sessions;
+
+import java.sql.Date;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Map;
+
+import org.springframework.jdbc.core.JdbcTemplate;
+import org.springframework.stereotype.Repository;
+
+/**
+ * Applies contributions to the rollup tables: add to the cell when it exists, insert it otherwise. Callers hold the
+ * site's sessionizer lock, so the update-then-insert pair cannot race with another writer of the same site.
+ */
+@Repository
+class RollupWriter {
+
+    private final JdbcTemplate jdbc;
+
+    RollupWriter(JdbcTemplate jdbc) {
+        this.jdbc = jdbc;
+    }
+
+    void apply(long siteId, Contributions c) {
+        applySessions(siteId, c.sessionCells);
+        applyPages(siteId, c.pageCells);
+    }
+
+    private void applySessions(long siteId, Map<Contributions.SessionCell, Contributions.SessionMeasures> cells) {
+        List<Map.Entry<Contributions.SessionCell, Contributions.SessionMeasures>> rows = new ArrayList<>();
+        cells.entrySet().stream().filter(e -> !e.getValue().isZero()).forEach(rows::add);
+        if (rows.isEmpty()) {
+            return;
+        }
+        int[][] updated = jdbc.batchUpdate("""
+                        UPDATE rollup_session SET sessions = sessions + ?, bounces = bounces + ?,
+                               pageviews = pageviews + ?, pageviews_sq = pageviews_sq + ?, engaged_ms = engaged_ms + ?,
+                               engaged_sq = engaged_sq + ?, revenue_micros = revenue_micros + ?,
+                               revenue_sq = revenue_sq + ?, entry_ads_sum = entry_ads_sum + ?,
+                               impressions = impressions + ?, viewable_impressions = viewable_impressions + ?,
+                               clicks = clicks + ?
+                        WHERE site_id = ? AND cuboid = ? AND local_day = ? AND local_hour = ? AND device = ? AND source = ?
+                          AND browser = ? AND variant = ? AND country = ? AND region = ? AND entry_ads = ?
+                          AND pages = ? AND entry_path = ?""", rows, 2000, (ps, e) -> {
+                    Contributions.SessionMeasures m = e.getValue();
+                    Contributions.SessionCell k = e.getKey();
+                    ps.setLong(1, m.sessions);
+                    ps.setLong(2, m.bounces);
+                    ps.setLong(3, m.pageviews);
+                    ps.setDouble(4, m.pageviewsSq);
+                    ps.setLong(5, m.engagedMs);
+                    ps.setDouble(6, m.engagedSq);
+                    ps.setLong(7, m.revenueMicros);
+                    ps.setDouble(8, m.revenueSq);
+                    ps.setLong(9, m.entryAdsSum);
+                    ps.setLong(10, m.impressions);
+                    ps.setLong(11, m.viewable);
+                    ps.setLong(12, m.clicks);
+                    ps.setLong(13, siteId);
+                    ps.setInt(14, k.cuboid());
+                    ps.setDate(15, Date.valueOf(k.day()));
+                    ps.setInt(16, k.hour());
+                    ps.setString(17, k.device());
+                    ps.setString(18, k.source());
+                    ps.setString(19, k.browser());
+                    ps.setString(20, k.variant());
+                    ps.setString(21, k.country());
+                    ps.setString(22, k.region());
+                    ps.setInt(23, k.entryAds());
+                    ps.setInt(24, k.pages());
+                    ps.setString(25, k.entryPath());
+                });
+        List<Map.Entry<Contributions.SessionCell, Contributions.SessionMeasures>> missing = missing(rows, updated);
+        if (missing.isEmpty()) {
+            return;
+        }
+        jdbc.batchUpdate("""
+                        INSERT INTO rollup_session (sessions, bounces, pageviews, pageviews_sq, engaged_ms, engaged_sq,
+                               revenue_micros, revenue_sq, entry_ads_sum, impressions, viewable_impressions, clicks,
+                               site_id, cuboid, local_day, local_hour, device, source, browser, variant, country, region, entry_ads,
+                               pages, entry_path)
+                        VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)""",
+                missing, 2000, (ps, e) -> {
+                    Contributions.SessionMeasures m = e.getValue();
+                    Contributions.SessionCell k = e.getKey();
+                    ps.setLong(1, m.sessions);
+                    ps.setLong(2, m.bounces);
+                    ps.setLong(3, m.pageviews);
+                    ps.setDouble(4, m.pageviewsSq);
+                    ps.setLong(5, m.engagedMs);
+                    ps.setDouble(6, m.engagedSq);
+                    ps.setLong(7, m.revenueMicros);
+                    ps.setDouble(8, m.revenueSq);
+                    ps.setLong(9, m.entryAdsSum);
+                    ps.setLong(10, m.impressions);
+                    ps.setLong(11, m.viewable);
+                    ps.setLong(12, m.clicks);
+                    ps.setLong(13, siteId);
+                    ps.setInt(14, k.cuboid());
+                    ps.setDate(15, Date.valueOf(k.day()));
+                    ps.setInt(16, k.hour());
+                    ps.setString(17, k.device());
+                    ps.setString(18, k.source());
+                    ps.setString(19, k.browser());
+                    ps.setString(20, k.variant());
+                    ps.setString(21, k.country());
+                    ps.setString(22, k.region());
+                    ps.setInt(23, k.entryAds());
+                    ps.setInt(24, k.pages());
+                    ps.setString(25, k.entryPath());
+                });
+    }
+
+    private void applyPages(long siteId, Map<Contributions.PageCell, Contributions.PageMeasures> cells) {
+        List<Map.Entry<Contributions.PageCell, Contributions.PageMeasures>> rows = new ArrayList<>();
+        cells.entrySet().stream().filter(e -> !e.getValue().isZero()).forEach(rows::add);
+        if (rows.isEmpty()) {
+            return;
+        }
+        int[][] updated = jdbc.batchUpdate("""
+                        UPDATE rollup_page SET pageviews = pageviews + ?, exits = exits + ?, engaged_ms = engaged_ms + ?,
+                               revenue_micros = revenue_micros + ?, revenue_sq = revenue_sq + ?,
+                               impressions = impressions + ?, viewable_impressions = viewable_impressions + ?,
+                               clicks = clicks + ?
+                        WHERE site_id = ? AND cuboid = ? AND local_day = ? AND device = ? AND source = ? AND browser = ?
+                          AND variant = ? AND country = ? AND region = ? AND ads = ? AND page_position = ?
+                          AND engaged_bucket = ?""", rows, 2000, (ps, e) -> pageRow(ps, siteId, e));
+        List<Map.Entry<Contributions.PageCell, Contributions.PageMeasures>> missing = missing(rows, updated);
+        if (missing.isEmpty()) {
+            return;
+        }
+        jdbc.batchUpdate("""
+                        INSERT INTO rollup_page (pageviews, exits, engaged_ms, revenue_micros, revenue_sq, impressions,
+                               viewable_impressions, clicks, site_id, cuboid, local_day, device, source, browser, variant,
+                               country, region, ads, page_position, engaged_bucket)
+                        VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)""",
+                missing, 2000, (ps, e) -> pageRow(ps, siteId, e));
+    }
+
+    private static void pageRow(java.sql.PreparedStatement ps, long siteId,
+                                Map.Entry<Contributions.PageCell, Contributions.PageMeasures> e)
+            throws java.sql.SQLException {
+        Contributions.PageMeasures m = e.getValue();
+        Contributions.PageCell k = e.getKey();
+        ps.setLong(1, m.pageviews);
+        ps.setLong(2, m.exits);
+        ps.setLong(3, m.engagedMs);
+        ps.setLong(4, m.revenueMicros);
+        ps.setDouble(5, m.revenueSq);
+        ps.setLong(6, m.impressions);
+        ps.setLong(7, m.viewable);
+        ps.setLong(8, m.clicks);
+        ps.setLong(9, siteId);
+        ps.setInt(10, k.cuboid());
+        ps.setDate(11, Date.valueOf(k.day()));
+        ps.setString(12, k.device());
+        ps.setString(13, k.source());
+        ps.setString(14, k.browser());
+        ps.setString(15, k.variant());
+        ps.setString(16, k.country());
+        ps.setString(17, k.region());
+        ps.setInt(18, k.ads());
+        ps.setInt(19, k.position());
+        ps.setInt(20, k.engagedBucket());
+    }
+
+    private static <T> List<T> missing(List<T> rows, int[][] updated) {
+        List<T> missing = new ArrayList<>();
+        int i = 0;
+        for (int[] batch : updated) {
+            for (int count : batch) {
+                if (count == 0) {
+                    missing.add(rows.get(i));
+                }
+                i++;
+            }
+        }
+        return missing;
+    }
+
+    /** Removes every rollup row of a site (before a rebuild). */
+    void clear(long siteId) {
+        jdbc.update("DELETE FROM rollup_session WHERE site_id = ?", siteId);
+        jdbc.update("DELETE FROM rollup_page WHERE site_id = ?", siteId);
+    }
+}

@@ -1,0 +1,275 @@
+package com.example.foldline.sessions;
+
+import java.sql.Date;
+import java.sql.ResultSet;
+import java.sql.SQLException;
+import java.time.LocalDate;
+import java.util.ArrayList;
+import java.util.EnumMap;
+import java.util.EnumSet;
+import java.util.HashMap;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.Optional;
+import java.util.Set;
+import java.util.StringJoiner;
+
+import org.springframework.jdbc.core.namedparam.MapSqlParameterSource;
+import org.springframework.jdbc.core.namedparam.NamedParameterJdbcTemplate;
+import org.springframework.stereotype.Service;
+
+/**
+ * Answers grouped questions from the rollup views: the cheapest view holding every filtered and grouped dimension
+ * is read; when no view holds the combination, sessions (and their page detail) are aggregated directly, the
+ * documented fallback (docs/architecture.md). Column names come only from {@link Dim}; values are bound.
+ */
+@Service
+public class Rollups {
+
+    /** Where an answer was read from, reported in answers so slow combinations are visible. */
+    public record Plan(String table, Integer cuboid) {
+        public String describe() {
+            return cuboid == null ? table + " (no rollup view holds this combination)" : table + " view " + cuboid;
+        }
+    }
+
+    /** Grouped session measures. */
+    public record SessionAnswer(Plan plan, List<Group<SessionTotals>> groups) {
+        public SessionTotals total() {
+            return groups.stream().map(Group::totals).reduce(SessionTotals.ZERO, SessionTotals::plus);
+        }
+    }
+
+    /** Grouped page measures. */
+    public record PageAnswer(Plan plan, List<Group<PageTotals>> groups) {
+        public PageTotals total() {
+            return groups.stream().map(Group::totals).reduce(PageTotals.ZERO, PageTotals::plus);
+        }
+    }
+
+    private static final String SESSION_SUMS = """
+            SUM(sessions) AS sessions, SUM(bounces) AS bounces, SUM(pageviews) AS pageviews,
+            SUM(pageviews_sq) AS pageviews_sq, SUM(engaged_ms) AS engaged_ms, SUM(engaged_sq) AS engaged_sq,
+            SUM(revenue_micros) AS revenue_micros, SUM(revenue_sq) AS revenue_sq, SUM(entry_ads_sum) AS entry_ads_sum,
+            SUM(impressions) AS impressions, SUM(viewable_impressions) AS viewable_impressions, SUM(clicks) AS clicks""";
+
+    private static final String FACT_SUMS = """
+            COUNT(*) AS sessions, SUM(CASE WHEN bounce THEN 1 ELSE 0 END) AS bounces, SUM(pageviews) AS pageviews,
+            SUM(CAST(pageviews AS DOUBLE PRECISION) * pageviews) AS pageviews_sq, SUM(engaged_ms) AS engaged_ms,
+            SUM(CAST(engaged_ms AS DOUBLE PRECISION) * engaged_ms) AS engaged_sq,
+            SUM(revenue_micros) AS revenue_micros,
+            SUM(CAST(revenue_micros AS DOUBLE PRECISION) * revenue_micros) AS revenue_sq,
+            SUM(entry_ads) AS entry_ads_sum, SUM(impressions) AS impressions,
+            SUM(viewable_impressions) AS viewable_impressions, SUM(clicks) AS clicks""";
+
+    private static final String PAGE_SUMS = """
+            SUM(pageviews) AS pageviews, SUM(exits) AS exits, SUM(engaged_ms) AS engaged_ms,
+            SUM(revenue_micros) AS revenue_micros, SUM(revenue_sq) AS revenue_sq, SUM(impressions) AS impressions,
+            SUM(viewable_impressions) AS viewable_impressions, SUM(clicks) AS clicks""";
+
+    private final NamedParameterJdbcTemplate jdbc;
+
+    Rollups(NamedParameterJdbcTemplate jdbc) {
+        this.jdbc = jdbc;
+    }
+
+    /** Session measures grouped by {@code groupBy} (and by day when {@code byDay}). */
+    public SessionAnswer sessions(long siteId, SegmentFilter filter, List<Dim> groupBy, boolean byDay) {
+        Set<Dim> needed = needed(filter, groupBy);
+        Optional<Cuboid> view = Cuboid.cheapest(Cuboid.SESSION, needed);
+        MapSqlParameterSource params = new MapSqlParameterSource("site", siteId)
+                .addValue("from", Date.valueOf(filter.from())).addValue("to", Date.valueOf(filter.to()));
+        StringBuilder sql = new StringBuilder("SELECT ");
+        String dayColumn = "local_day";
+        List<String> groupExprs = new ArrayList<>();
+        if (byDay) {
+            groupExprs.add(dayColumn);
+        }
+        for (Dim d : groupBy) {
+            groupExprs.add(view.isPresent() ? d.column() : factExpression(d));
+        }
+        for (int i = 0; i < groupExprs.size(); i++) {
+            sql.append(groupExprs.get(i)).append(" AS g").append(i).append(", ");
+        }
+        Plan plan;
+        if (view.isPresent()) {
+            sql.append(SESSION_SUMS).append(" FROM rollup_session WHERE site_id = :site AND cuboid = :cuboid")
+                    .append(" AND local_day BETWEEN :from AND :to");
+            params.addValue("cuboid", view.get().id());
+            plan = new Plan("rollup_session", view.get().id());
+        } else {
+            sql.append(FACT_SUMS).append(" FROM session_fact WHERE site_id = :site AND closed = TRUE")
+                    .append(" AND local_day BETWEEN :from AND :to");
+            plan = new Plan("session_fact", null);
+        }
+        appendFilter(sql, params, filter, view.isPresent());
+        appendGroupOrder(sql, groupExprs);
+        List<Group<SessionTotals>> groups = jdbc.query(sql.toString(), params,
+                (rs, i) -> new Group<>(byDay ? rs.getObject("g0", LocalDate.class) : null,
+                        key(rs, groupBy, byDay ? 1 : 0), sessionTotals(rs)));
+        return new SessionAnswer(plan, groups);
+    }
+
+    /** Page measures grouped by {@code groupBy} (and by day when {@code byDay}). */
+    public PageAnswer pages(long siteId, SegmentFilter filter, List<Dim> groupBy, boolean byDay) {
+        Set<Dim> needed = needed(filter, groupBy);
+        Optional<Cuboid> view = Cuboid.cheapest(Cuboid.PAGE, needed);
+        if (view.isEmpty()) {
+            return pagesFromSessions(siteId, filter, groupBy, byDay);
+        }
+        MapSqlParameterSource params = new MapSqlParameterSource("site", siteId)
+                .addValue("from", Date.valueOf(filter.from())).addValue("to", Date.valueOf(filter.to()))
+                .addValue("cuboid", view.get().id());
+        List<String> groupExprs = new ArrayList<>();
+        if (byDay) {
+            groupExprs.add("local_day");
+        }
+        groupBy.forEach(d -> groupExprs.add(d.column()));
+        StringBuilder sql = new StringBuilder("SELECT ");
+        for (int i = 0; i < groupExprs.size(); i++) {
+            sql.append(groupExprs.get(i)).append(" AS g").append(i).append(", ");
+        }
+        sql.append(PAGE_SUMS).append(" FROM rollup_page WHERE site_id = :site AND cuboid = :cuboid")
+                .append(" AND local_day BETWEEN :from AND :to");
+        appendFilter(sql, params, filter, true);
+        appendGroupOrder(sql, groupExprs);
+        List<Group<PageTotals>> groups = jdbc.query(sql.toString(), params,
+                (rs, i) -> new Group<>(byDay ? rs.getObject("g0", LocalDate.class) : null,
+                        key(rs, groupBy, byDay ? 1 : 0), pageTotals(rs)));
+        return new PageAnswer(new Plan("rollup_page", view.get().id()), groups);
+    }
+
+    /** Fallback: reads closed sessions with their page detail and aggregates pages in memory. */
+    private PageAnswer pagesFromSessions(long siteId, SegmentFilter filter, List<Dim> groupBy, boolean byDay) {
+        MapSqlParameterSource params = new MapSqlParameterSource("site", siteId)
+                .addValue("from", Date.valueOf(filter.from())).addValue("to", Date.valueOf(filter.to()));
+        StringBuilder sql = new StringBuilder("""
+                SELECT local_day, device, source, browser, variant, country, region, pageviews, page_detail,
+                       entry_ads, later_ads, engaged_ms, revenue_micros, impressions, viewable_impressions, clicks, id,
+                       origin
+                FROM session_fact WHERE site_id = :site AND closed = TRUE AND local_day BETWEEN :from AND :to""");
+        appendFilter(sql, params, filter, false);
+        Map<List<Object>, PageTotals> sums = new LinkedHashMap<>();
+        jdbc.query(sql.toString(), params, rs -> {
+            List<PageStat> pages = PageStat.decode(rs.getString("page_detail"));
+            if (pages.isEmpty()) {
+                double later = rs.getDouble("later_ads");
+                pages = ImportedPages.withPages(new SessionFact(siteId, "", "import", "", null, null, null, null, 0,
+                        rs.getInt("pageviews"), false, rs.getLong("engaged_ms"), "", rs.getInt("entry_ads"),
+                        rs.wasNull() ? null : later, null, null, null, null, null, null, null,
+                        rs.getLong("revenue_micros"), rs.getInt("impressions"), rs.getInt("viewable_impressions"),
+                        rs.getInt("clicks"), true, List.of())).pages();
+            }
+            Map<Dim, String> segment = new EnumMap<>(Dim.class);
+            for (Dim d : List.of(Dim.DEVICE, Dim.SOURCE, Dim.BROWSER, Dim.VARIANT, Dim.COUNTRY, Dim.REGION)) {
+                String v = rs.getString(d.column());
+                segment.put(d, v == null ? "" : v);
+            }
+            LocalDate day = rs.getObject("local_day", LocalDate.class);
+            for (int i = 0; i < pages.size(); i++) {
+                PageStat p = pages.get(i);
+                List<Object> key = new ArrayList<>();
+                key.add(byDay ? day : null);
+                for (Dim d : groupBy) {
+                    key.add(switch (d) {
+                        case ADS -> p.ads();
+                        case POSITION -> i == 0 ? 0 : 1;
+                        case ENGAGED_BUCKET -> p.engagedBucket();
+                        default -> segment.get(d);
+                    });
+                }
+                PageTotals add = new PageTotals(1, i == pages.size() - 1 ? 1 : 0,
+                        p.engagedMs() == null ? 0 : p.engagedMs(), p.revenueMicros(),
+                        (double) p.revenueMicros() * p.revenueMicros(), p.impressions(), p.viewable(), p.clicks());
+                sums.merge(key, add, PageTotals::plus);
+            }
+        });
+        List<Group<PageTotals>> groups = new ArrayList<>();
+        sums.forEach((k, v) -> {
+            Map<Dim, Object> key = new EnumMap<>(Dim.class);
+            for (int i = 0; i < groupBy.size(); i++) {
+                key.put(groupBy.get(i), k.get(i + 1));
+            }
+            groups.add(new Group<>((LocalDate) k.get(0), key, v));
+        });
+        groups.sort((a, b) -> compareKeys(a, b, groupBy));
+        return new PageAnswer(new Plan("session_fact", null), groups);
+    }
+
+    private static int compareKeys(Group<?> a, Group<?> b, List<Dim> groupBy) {
+        if (a.day() != null && b.day() != null && !a.day().equals(b.day())) {
+            return a.day().compareTo(b.day());
+        }
+        for (Dim d : groupBy) {
+            Object x = a.key().get(d);
+            Object y = b.key().get(d);
+            int c = x instanceof Integer xi ? Integer.compare(xi, (Integer) y) : ((String) x).compareTo((String) y);
+            if (c != 0) {
+                return c;
+            }
+        }
+        return 0;
+    }
+
+    private static Set<Dim> needed(SegmentFilter filter, List<Dim> groupBy) {
+        Set<Dim> needed = EnumSet.noneOf(Dim.class);
+        needed.addAll(filter.dims());
+        needed.addAll(groupBy);
+        return needed;
+    }
+
+    private static void appendFilter(StringBuilder sql, MapSqlParameterSource params, SegmentFilter filter,
+                                     boolean rollup) {
+        int i = 0;
+        for (Map.Entry<Dim, List<String>> e : filter.values().entrySet()) {
+            String column = rollup ? e.getKey().column() : "COALESCE(" + e.getKey().column() + ", '')";
+            sql.append(" AND ").append(column).append(" IN (:f").append(i).append(")");
+            params.addValue("f" + i, e.getValue());
+            i++;
+        }
+    }
+
+    private static void appendGroupOrder(StringBuilder sql, List<String> groupExprs) {
+        if (groupExprs.isEmpty()) {
+            return;
+        }
+        StringJoiner cols = new StringJoiner(", ");
+        groupExprs.forEach(cols::add);
+        sql.append(" GROUP BY ").append(cols).append(" ORDER BY ").append(cols);
+    }
+
+    /** How a grouping dimension is computed from session_fact in the fallback. */
+    private static String factExpression(Dim d) {
+        return switch (d) {
+            case HOUR -> "local_hour";
+            case PAGES -> "LEAST(pageviews, 11)";
+            case ENTRY_ADS, ENTRY_PATH -> d.column();
+            case DEVICE, SOURCE, BROWSER, VARIANT, COUNTRY, REGION -> "COALESCE(" + d.column() + ", '')";
+            default -> throw new IllegalArgumentException(d + " is a page-level dimension");
+        };
+    }
+
+    private static Map<Dim, Object> key(ResultSet rs, List<Dim> groupBy, int offset) throws SQLException {
+        Map<Dim, Object> key = new HashMap<>();
+        for (int i = 0; i < groupBy.size(); i++) {
+            Dim d = groupBy.get(i);
+            String column = "g" + (i + offset);
+            key.put(d, d.isNumeric() ? (Object) rs.getInt(column) : (Object) rs.getString(column));
+        }
+        return key;
+    }
+
+    private static SessionTotals sessionTotals(ResultSet rs) throws SQLException {
+        return new SessionTotals(rs.getLong("sessions"), rs.getLong("bounces"), rs.getLong("pageviews"),
+                rs.getDouble("pageviews_sq"), rs.getLong("engaged_ms"), rs.getDouble("engaged_sq"),
+                rs.getLong("revenue_micros"), rs.getDouble("revenue_sq"), rs.getLong("entry_ads_sum"),
+                rs.getLong("impressions"), rs.getLong("viewable_impressions"), rs.getLong("clicks"));
+    }
+
+    private static PageTotals pageTotals(ResultSet rs) throws SQLException {
+        return new PageTotals(rs.getLong("pageviews"), rs.getLong("exits"), rs.getLong("engaged_ms"),
+                rs.getLong("revenue_micros"), rs.getDouble("revenue_sq"), rs.getLong("impressions"),
+                rs.getLong("viewable_impressions"), rs.getLong("clicks"));
+    }
+}

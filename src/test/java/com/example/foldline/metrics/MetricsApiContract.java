@@ -1,0 +1,304 @@
+package com.example.foldline.metrics;
+
+import static org.assertj.core.api.Assertions.assertThat;
+import static org.assertj.core.api.Assertions.within;
+import static org.springframework.security.test.web.servlet.request.SecurityMockMvcRequestPostProcessors.httpBasic;
+
+import java.util.List;
+import java.util.Map;
+
+import org.junit.jupiter.api.BeforeEach;
+import org.junit.jupiter.api.Test;
+import org.springframework.beans.factory.annotation.Autowired;
+import org.springframework.http.HttpStatus;
+import org.springframework.http.MediaType;
+import org.springframework.jdbc.core.simple.JdbcClient;
+import org.springframework.test.web.servlet.assertj.MockMvcTester;
+
+import com.example.foldline.sessions.Cuboid;
+import com.example.foldline.sessions.Sessionizer;
+import com.example.foldline.sites.NewIngestKey;
+import com.example.foldline.sites.Site;
+import com.example.foldline.sites.SiteSettings;
+import com.example.foldline.sites.Sites;
+import com.example.foldline.support.Events;
+
+import tools.jackson.databind.JsonNode;
+import tools.jackson.databind.ObjectMapper;
+
+/**
+ * Issue #3: sessions and every metrics endpoint on a small hand-computed fixture (values worked out in the comments),
+ * run on H2 and PostgreSQL by the subclasses.
+ */
+abstract class MetricsApiContract {
+
+    @Autowired
+    MockMvcTester mvc;
+    @Autowired
+    Sites sites;
+    @Autowired
+    Sessionizer sessionizer;
+    @Autowired
+    JdbcClient jdbc;
+    @Autowired
+    ObjectMapper json;
+
+    Site site;
+    String key;
+
+    /*
+     * Fixture, site in Europe/Lisbon (UTC+1 until 2026-10-25), 30-minute timeout:
+     *  A: a1 10:00Z ads 2 /x phone search PT, impressions 1000 (viewable, clicked) + 500; engaged 8 s
+     *     a2 10:10Z ads 4 /y, impression 2000 (viewable); engaged 30 s        -> 2 pages, revenue 3500, engaged 38 s
+     *  B: b1 12:00Z ads 2 /x phone search PT, engaged 3 s                      -> bounce, revenue 0
+     *  C: c1 13:00Z ads 5 /z desktop direct ES, impression 4000 (viewable)     -> bounce, revenue 4000
+     *     c2 14:00Z ads 5 /z (60 min later: a new session)                     -> bounce, revenue 0
+     * Totals: 4 sessions, 5 pageviews, 3 bounces, revenue 7500, 4 impressions, 3 viewable, 1 click, engaged 41 s.
+     */
+    @BeforeEach
+    void fixture() {
+        site = sites.create(new SiteSettings("Tidewater Kitchen", "kitchen" + System.nanoTime() + ".example",
+                "Europe/Lisbon", "EUR", null, null, 3660));
+        NewIngestKey k = sites.createIngestKey(site.id(), "test");
+        key = k.key();
+        post(new Events()
+                .pageview("a1", "2026-10-20T10:00:00Z", "A", "/x", 2, "phone", "search", "PT")
+                .pageview("a2", "2026-10-20T10:10:00Z", "A", "/y", 4, "phone", "search", "PT")
+                .impression("i1", "a1", 1000, true, true)
+                .impression("i2", "a1", 500, false, false)
+                .impression("i3", "a2", 2000, true, false)
+                .pageEnd("a1", 8000).pageEnd("a2", 30000)
+                .pageview("b1", "2026-10-20T12:00:00Z", "B", "/x", 2, "phone", "search", "PT")
+                .pageEnd("b1", 3000)
+                .pageview("c1", "2026-10-20T13:00:00Z", "C", "/z", 5, "desktop", "direct", "ES")
+                .impression("i4", "c1", 4000, true, false)
+                .pageview("c2", "2026-10-20T14:00:00Z", "C", "/z", 5, "desktop", "direct", "ES"));
+        sessionizer.run(site.id());
+    }
+
+    void post(Events events) {
+        assertThat(mvc.post().uri("/api/v1/sites/{id}/events", site.id()).header("Authorization", "Bearer " + key)
+                .contentType(MediaType.parseMediaType("application/x-ndjson")).content(events.ndjson()))
+                .hasStatusOk().bodyJson().extractingPath("$.rejectedCount").isEqualTo(0);
+    }
+
+    JsonNode get(String name, String query) {
+        var result = mvc.get().uri("/api/v1/sites/" + site.id() + "/metrics/" + name + "?from=2026-10-20&to=2026-10-20"
+                + query).with(httpBasic("admin", "admin-secret")).exchange();
+        assertThat(result).hasStatusOk();
+        return json.readTree(result.getResponse().getContentAsByteArray());
+    }
+
+    @Test
+    void overviewMatchesTheHandComputedValues() {
+        JsonNode o = get("overview", "").get("current");
+        assertThat(o.get("sessions").asLong()).isEqualTo(4);
+        assertThat(o.get("pageviews").asLong()).isEqualTo(5);
+        assertThat(o.get("bounces").asLong()).isEqualTo(3);
+        assertThat(o.get("bounceRate").asDouble()).isEqualTo(0.75);
+        assertThat(o.get("pagesPerSession").asDouble()).isEqualTo(1.25);
+        assertThat(o.get("engagedMsPerSession").asDouble()).isEqualTo(41_000 / 4.0);
+        assertThat(o.get("revenueMicros").asLong()).isEqualTo(7500);
+        assertThat(o.get("revenue").asDouble()).isEqualTo(0.0075);
+        assertThat(o.get("pageRpmMicros").asDouble()).isEqualTo(7500 / 5.0 * 1000);
+        assertThat(o.get("pageRpm").asDouble()).isEqualTo(1.5);
+        assertThat(o.get("sessionRpmMicros").asDouble()).isEqualTo(7500 / 4.0 * 1000);
+        assertThat(o.get("ecpmMicros").asDouble()).isEqualTo(7500 / 4.0 * 1000);
+        assertThat(o.get("viewabilityRate").asDouble()).isEqualTo(0.75);
+        assertThat(o.get("ctr").asDouble()).isEqualTo(0.25);
+        // filters narrow the sessions: phone readers are A and B
+        JsonNode phone = get("overview", "&device=phone").get("current");
+        assertThat(phone.get("sessions").asLong()).isEqualTo(2);
+        assertThat(phone.get("revenueMicros").asLong()).isEqualTo(3500);
+        // a combination no rollup view holds falls back to the sessions table with the same result
+        JsonNode odd = get("overview", "&region=PT-11&browser=Lumen");
+        assertThat(odd.get("scope").get("answeredFrom").stringValue()).contains("session_fact");
+        assertThat(odd.get("current").get("sessions").asLong()).isZero();
+    }
+
+    @Test
+    void comparisonWithThePreviousPeriodNamesItsMethod() {
+        JsonNode a = get("overview", "&compare=previous");
+        JsonNode cmp = a.get("comparison");
+        assertThat(cmp.get("from").stringValue()).isEqualTo("2026-10-19");
+        assertThat(cmp.get("values").get("sessions").asLong()).isZero();
+        JsonNode bounce = null;
+        for (JsonNode c : cmp.get("changes")) {
+            if (c.get("metric").stringValue().equals("bounceRate")) {
+                bounce = c;
+            }
+        }
+        assertThat(bounce).isNotNull();
+        assertThat(bounce.get("method").stringValue()).contains("Newcombe");
+        // no sessions before: nothing to test against
+        assertThat(bounce.has("significant")).isFalse();
+    }
+
+    @Test
+    void densityGivesBounceByEntryAdsWithWilsonIntervals() {
+        JsonNode points = get("density", "").get("points");
+        assertThat(points).hasSize(2);
+        assertThat(points.get(0).get("entryAds").asInt()).isEqualTo(2);
+        assertThat(points.get(0).get("sessions").asLong()).isEqualTo(2);
+        assertThat(points.get(0).get("bounceRate").asDouble()).isEqualTo(0.5);
+        // Wilson 95% for 1/2: (0.0945, 0.9055), from the score-interval formula, z = 1.959963985
+        assertThat(points.get(0).get("bounceLower").asDouble()).isCloseTo(0.09453120, within(1e-7));
+        assertThat(points.get(0).get("bounceUpper").asDouble()).isCloseTo(0.90546880, within(1e-7));
+        assertThat(points.get(1).get("entryAds").asInt()).isEqualTo(5);
+        assertThat(points.get(1).get("bounceRate").asDouble()).isEqualTo(1.0);
+        assertThat(points.get(1).get("sessionRpmMicros").asDouble()).isEqualTo(4000 / 2.0 * 1000);
+    }
+
+    @Test
+    void depthGivesRevenuePerSessionByPagesAndTheMarginalPage() {
+        JsonNode points = get("depth", "").get("points");
+        assertThat(points).hasSize(2);
+        assertThat(points.get(0).get("pages").asInt()).isEqualTo(1);
+        assertThat(points.get(0).get("sessions").asLong()).isEqualTo(3);
+        assertThat(points.get(0).get("revenuePerSessionMicros").asDouble()).isCloseTo(4000 / 3.0, within(1e-9));
+        assertThat(points.get(1).get("revenuePerSessionMicros").asDouble()).isEqualTo(3500.0);
+        assertThat(points.get(1).get("marginalRevenueMicros").asDouble()).isCloseTo(3500 - 4000 / 3.0, within(1e-9));
+    }
+
+    @Test
+    void engagementGivesRevenuePerPageviewByEngagedTime() {
+        JsonNode a = get("engagement", "");
+        assertThat(a.get("unmeasuredPageviews").asLong()).isEqualTo(2);   // c1 and c2 have no page-end
+        Map<Integer, JsonNode> byBucket = new java.util.HashMap<>();
+        a.get("points").forEach(p -> byBucket.put(p.get("bucket").asInt(), p));
+        assertThat(byBucket.keySet()).containsExactlyInAnyOrder(0, 1, 4);
+        assertThat(byBucket.get(1).get("revenuePerPageviewMicros").asDouble()).isEqualTo(1500.0);  // a1: 8 s
+        assertThat(byBucket.get(4).get("revenueMicros").asLong()).isEqualTo(2000);                 // a2: 30 s
+        assertThat(byBucket.get(0).get("label").stringValue()).isEqualTo("0-5 s");               // b1: 3 s
+    }
+
+    @Test
+    void geographyComparesEachCountryWithTheSite() {
+        JsonNode rows = get("geography", "&sort=sessionRpm").get("rows");
+        assertThat(rows).hasSize(2);
+        assertThat(rows.get(0).get("country").stringValue()).isEqualTo("ES");
+        assertThat(rows.get(0).get("share").asDouble()).isEqualTo(0.5);
+        assertThat(rows.get(0).get("pageRpmMicros").asDouble()).isEqualTo(4000 / 2.0 * 1000);
+        assertThat(rows.get(0).get("sessionRpmVsSite").asDouble()).isCloseTo(2_000_000 / 1_875_000.0, within(1e-12));
+        assertThat(rows.get(1).get("pageRpmMicros").asDouble()).isCloseTo(3500 / 3.0 * 1000, within(1e-9));
+    }
+
+    @Test
+    void pagesRanksEntryPathsAndSearches() {
+        JsonNode a = get("pages", "&sort=bounceRate&minSessions=1");
+        assertThat(a.get("rows")).extracting(r -> r.get("path").stringValue()).containsExactly("/z", "/x");
+        assertThat(a.get("rows").get(1).get("meanEntryAds").asDouble()).isEqualTo(2.0);
+        assertThat(get("pages", "&q=Z").get("rows")).hasSize(1);
+    }
+
+    @Test
+    void timeseriesFillsEveryDayAndHour() {
+        var result = mvc.get().uri("/api/v1/sites/" + site.id()
+                        + "/metrics/timeseries?from=2026-10-19&to=2026-10-21&metric=bounceRate")
+                .with(httpBasic("admin", "admin-secret")).exchange();
+        JsonNode points = json.readTree(result.getResponse().getContentAsByteArray()).get("points");
+        assertThat(points).extracting(p -> p.get("at").stringValue())
+                .containsExactly("2026-10-19", "2026-10-20", "2026-10-21");
+        assertThat(points.get(1).get("value").asDouble()).isEqualTo(0.75);
+        assertThat(points.get(0).has("value")).isFalse();
+        JsonNode hourly = get("timeseries", "&grain=hour").get("points");
+        assertThat(hourly).hasSize(24);
+        // 10:00Z is 11:00 in Lisbon (UTC+1 on 20 October)
+        assertThat(hourly.get(11).get("numerator").asDouble()).isEqualTo(1);
+    }
+
+    @Test
+    void lateEventsLandInTheRightSessionAndTheRollupsFollow() {
+        // a late second page for B (20 min after b1) turns B's bounce into a two-page session,
+        // and an impression that arrives before its pageview is counted once the pageview is there
+        post(new Events().impression("i5", "b2", 700, true, false));
+        sessionizer.run(site.id());
+        post(new Events().pageview("b2", "2026-10-20T12:20:00Z", "B", "/w", 1, "phone", "search", "PT"));
+        sessionizer.run(site.id());
+        JsonNode o = get("overview", "").get("current");
+        assertThat(o.get("sessions").asLong()).isEqualTo(4);
+        assertThat(o.get("bounces").asLong()).isEqualTo(2);
+        assertThat(o.get("revenueMicros").asLong()).isEqualTo(8200);
+        // a page-end after the session closed updates its engaged time
+        post(new Events().pageEnd("c2", 12_000));
+        sessionizer.run(site.id());
+        assertThat(get("overview", "").get("current").get("engagedMs").asLong()).isEqualTo(41_000 + 12_000);
+        // a late first page before A's first page makes it A's entry page (entry ads 0)
+        post(new Events().pageview("a0", "2026-10-20T09:55:00Z", "A", "/start", 0, "phone", "search", "PT"));
+        sessionizer.run(site.id());
+        JsonNode density = get("density", "").get("points");
+        assertThat(density.get(0).get("entryAds").asInt()).isZero();
+        assertThat(density.get(0).get("sessions").asLong()).isEqualTo(1);
+        assertRollupsEqualSessions();
+    }
+
+    @Test
+    void rebuildFromRawEventsGivesTheSameRollups() {
+        String before = get("overview", "").get("current").toString();
+        assertThat(mvc.post().uri("/api/v1/admin/rollups/rebuild?siteId=" + site.id())
+                .with(httpBasic("admin", "admin-secret"))).hasStatusOk();
+        assertThat(get("overview", "").get("current").toString()).isEqualTo(before);
+        assertRollupsEqualSessions();
+    }
+
+    @Test
+    void importedSessionsFlowIntoTheRollups() {
+        post(new Events().line("""
+                {"type":"session","id":"imp-1","visitor":"Z","start":"2026-10-20T16:00:00Z","end":"2026-10-20T16:05:00Z",\
+                "pageviews":3,"engagedMs":60000,"entryPath":"/old","entryAds":1,"laterAds":3,"revenueMicros":900,\
+                "impressions":6,"viewableImpressions":4,"clicks":0,"device":"tablet","source":"email","country":"FR"}"""));
+        sessionizer.run(site.id());
+        JsonNode o = get("overview", "").get("current");
+        assertThat(o.get("sessions").asLong()).isEqualTo(5);
+        assertThat(o.get("pageviews").asLong()).isEqualTo(8);
+        assertThat(o.get("revenueMicros").asLong()).isEqualTo(8400);
+        assertRollupsEqualSessions();
+    }
+
+    @Test
+    void badFilterInputIs400NamingTheParameter() {
+        assertBad("?shoeSize=42", "shoeSize");
+        assertBad("?device=fridge", "device");
+        assertBad("?country=XX", "country");
+        assertBad("?from=2026-10-21&to=2026-10-20", "from");
+        assertBad("?from=2025-01-01&to=2026-10-20", "from");
+        assertBad("?from=yesterday", "from");
+        assertBad("?compare=later", "compare");
+        assertThat(mvc.get().uri("/api/v1/sites/" + site.id() + "/metrics/nonsense")
+                .with(httpBasic("admin", "admin-secret"))).hasStatus(HttpStatus.NOT_FOUND);
+        assertThat(mvc.get().uri("/api/v1/sites/" + site.id() + "/metrics/timeseries?grain=hour&from=2026-10-01"
+                + "&to=2026-10-20").with(httpBasic("admin", "admin-secret"))).hasStatus(HttpStatus.BAD_REQUEST)
+                .bodyJson().extractingPath("$.errors[0].field").isEqualTo("grain");
+    }
+
+    private void assertBad(String query, String field) {
+        assertThat(mvc.get().uri("/api/v1/sites/" + site.id() + "/metrics/overview" + query)
+                .with(httpBasic("admin", "admin-secret"))).hasStatus(HttpStatus.BAD_REQUEST)
+                .bodyJson().extractingPath("$.errors[0].field").isEqualTo(field);
+    }
+
+    /** Every rollup view must add up to the stored closed sessions (the invariant the incremental updates keep). */
+    void assertRollupsEqualSessions() {
+        Map<String, Object> facts = jdbc.sql("""
+                SELECT COUNT(*) AS sessions, SUM(pageviews) AS pageviews, SUM(revenue_micros) AS revenue,
+                       SUM(CASE WHEN bounce THEN 1 ELSE 0 END) AS bounces
+                FROM session_fact WHERE site_id = :s AND closed = TRUE""").param("s", site.id()).query().singleRow();
+        for (Cuboid c : Cuboid.SESSION) {
+            Map<String, Object> view = jdbc.sql("""
+                    SELECT SUM(sessions) AS sessions, SUM(pageviews) AS pageviews, SUM(revenue_micros) AS revenue,
+                           SUM(bounces) AS bounces
+                    FROM rollup_session WHERE site_id = :s AND cuboid = :c""")
+                    .param("s", site.id()).param("c", c.id()).query().singleRow();
+            for (String k : List.of("sessions", "pageviews", "revenue", "bounces")) {
+                assertThat(((Number) view.get(k)).longValue()).as("view %d %s", c.id(), k)
+                        .isEqualTo(((Number) facts.get(k)).longValue());
+            }
+        }
+        long pages = ((Number) facts.get("pageviews")).longValue();
+        for (Cuboid c : Cuboid.PAGE) {
+            Number n = (Number) jdbc.sql("SELECT SUM(pageviews) FROM rollup_page WHERE site_id = :s AND cuboid = :c")
+                    .param("s", site.id()).param("c", c.id()).query().singleValue();
+            assertThat(n.longValue()).as("page view %d", c.id()).isEqualTo(pages);
+        }
+    }
+}
