@@ -12,6 +12,9 @@ import org.springframework.security.core.userdetails.UsernameNotFoundException;
 import org.springframework.security.crypto.factory.PasswordEncoderFactories;
 import org.springframework.security.crypto.password.PasswordEncoder;
 import org.springframework.security.web.SecurityFilterChain;
+import org.springframework.security.web.authentication.www.BasicAuthenticationFilter;
+import org.springframework.security.web.csrf.CookieCsrfTokenRepository;
+import org.springframework.security.web.csrf.CsrfTokenRequestAttributeHandler;
 import org.springframework.security.web.util.matcher.RequestMatcher;
 
 /**
@@ -37,7 +40,11 @@ class SecurityConfig {
                         .anyRequest().authenticated())
                 .formLogin(Customizer.withDefaults())
                 .logout(Customizer.withDefaults())
-                .csrf(csrf -> csrf.requireCsrfProtectionMatcher(cookieAuthenticatedWrite()));
+                .csrf(csrf -> csrf.requireCsrfProtectionMatcher(cookieAuthenticatedWrite())
+                        // the browser UI reads the XSRF-TOKEN cookie and sends it back as the X-XSRF-TOKEN header
+                        .csrfTokenRepository(CookieCsrfTokenRepository.withHttpOnlyFalse())
+                        .csrfTokenRequestHandler(new CsrfTokenRequestAttributeHandler()))
+                .addFilterAfter(new CsrfCookieFilter(), BasicAuthenticationFilter.class);
         if (properties.basicAuthEnabled()) {
             http.httpBasic(Customizer.withDefaults());
         }
