@@ -27,7 +27,7 @@ public final class Answers {
     }
 
     public record DensityAnswer(Scope scope, List<DensityPoint> points, long sessions, String intervalMethod,
-                                Object fit, Object recommendation, String notice) {
+                                FitSummary fit, CapAdvice recommendation, String notice) {
     }
 
     /** One pages-per-session bucket (11 = 11 or more). */
@@ -35,7 +35,7 @@ public final class Answers {
                              Double revenuePerSession, Double marginalRevenueMicros, Double marginalRevenue) {
     }
 
-    public record DepthAnswer(Scope scope, List<DepthPoint> points, long sessions, Object fit, String notice) {
+    public record DepthAnswer(Scope scope, List<DepthPoint> points, long sessions, KneeReport fit, String notice) {
     }
 
     /** One engaged-time bucket of pageviews. */
@@ -45,7 +45,7 @@ public final class Answers {
     }
 
     public record EngagementAnswer(Scope scope, List<EngagementPoint> points, long pageviews,
-                                   long unmeasuredPageviews, Object fit, String notice) {
+                                   long unmeasuredPageviews, KneeReport fit, String notice) {
     }
 
     /** One country (or region). Ratios compare with the site average over the same filter. */

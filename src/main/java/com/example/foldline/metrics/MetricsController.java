@@ -1,10 +1,5 @@
 package com.example.foldline.metrics;
 
-import java.time.Clock;
-import java.time.LocalDate;
-import java.util.Map;
-import java.util.Set;
-
 import org.springframework.web.bind.annotation.GetMapping;
 import org.springframework.web.bind.annotation.PathVariable;
 import org.springframework.web.bind.annotation.RestController;
@@ -21,26 +16,14 @@ import jakarta.servlet.http.HttpServletRequest;
 @Tag(name = "Metrics", description = "Answers read from the rollups; definitions in docs/metrics.md")
 class MetricsController {
 
-    private static final Map<String, Set<String>> EXTRAS = Map.of(
-            "overview", Set.of(),
-            "density", Set.of("model"),
-            "depth", Set.of(),
-            "engagement", Set.of(),
-            "geography", Set.of("by", "sort", "order"),
-            "pages", Set.of("sort", "order", "limit", "q", "minSessions"),
-            "timeseries", Set.of("metric", "grain"));
-
     private final Sites sites;
     private final MetricsService metrics;
-    private final Clock clock;
-    private final MetricsService.DensityExtras densityExtras;
+    private final MetricRequestFactory requests;
 
-    MetricsController(Sites sites, MetricsService metrics, Clock clock,
-                      org.springframework.beans.factory.ObjectProvider<MetricsService.DensityExtras> densityExtras) {
+    MetricsController(Sites sites, MetricsService metrics, MetricRequestFactory requests) {
         this.sites = sites;
         this.metrics = metrics;
-        this.clock = clock;
-        this.densityExtras = densityExtras.getIfAvailable();
+        this.requests = requests;
     }
 
     @GetMapping("/api/v1/sites/{siteId}/metrics/{name}")
@@ -48,17 +31,15 @@ class MetricsController {
             description = "Segment filter: from, to (YYYY-MM-DD in the site's time zone; default the last 28 days), "
                     + "device, source, country, region, browser, variant (repeatable), compare=previous.")
     Object metric(@PathVariable long siteId, @PathVariable String name, HttpServletRequest request) {
-        Set<String> extras = EXTRAS.get(name);
-        if (extras == null) {
+        if (!MetricRequestFactory.ANSWERS.containsKey(name)) {
             throw new NotFoundException("no metric answer '" + name + "'; one of " + String.join(", ",
-                    EXTRAS.keySet().stream().sorted().toList()));
+                    MetricRequestFactory.ANSWERS.keySet().stream().sorted().toList()));
         }
         Site site = sites.require(siteId);
-        LocalDate today = LocalDate.now(clock.withZone(site.timezone()));
-        MetricRequest r = MetricRequest.parse(site, request.getParameterMap(), extras, today);
+        MetricRequest r = requests.request(site, name, request.getParameterMap());
         return switch (name) {
             case "overview" -> metrics.overview(r);
-            case "density" -> metrics.density(r, densityExtras);
+            case "density" -> metrics.density(r);
             case "depth" -> metrics.depth(r);
             case "engagement" -> metrics.engagement(r);
             case "geography" -> metrics.geography(r);

@@ -34,9 +34,11 @@ public class MetricsService {
     public static final long MIN_SESSIONS = 200;
 
     private final Rollups rollups;
+    private final KneeAnalysis knees;
 
-    MetricsService(Rollups rollups) {
+    MetricsService(Rollups rollups, KneeAnalysis knees) {
         this.rollups = rollups;
+        this.knees = knees;
     }
 
     Answers.Scope scope(MetricRequest r, Rollups.Plan plan) {
@@ -67,7 +69,8 @@ public class MetricsService {
         return new Answers.OverviewAnswer(scope(r, now.plan()), Overview.of(now.total()), comparison);
     }
 
-    public Answers.DensityAnswer density(MetricRequest r, DensityExtras extras) {
+    public Answers.DensityAnswer density(MetricRequest r) {
+        String model = MetricRequest.choice(r, "model", "logistic", Set.of("logistic", "linear"));
         Rollups.SessionAnswer answer = rollups.sessions(r.site().id(), r.filter(), List.of(Dim.ENTRY_ADS), false);
         List<Answers.DensityPoint> points = new ArrayList<>();
         for (Group<SessionTotals> g : answer.groups()) {
@@ -79,21 +82,10 @@ public class MetricsService {
                     Money.finite(Metric.PAGES_PER_SESSION.value(t)), Money.finite(rpm), Money.decimal(rpm)));
         }
         long sessions = answer.total().sessions();
-        Object fit = null;
-        Object recommendation = null;
-        if (extras != null && sessions >= MIN_SESSIONS) {
-            fit = extras.fit(r, points);
-            recommendation = extras.recommendation(r, points);
-        }
+        FitSummary fit = knees.density(points, model);
+        CapAdvice recommendation = sessions >= MIN_SESSIONS ? knees.recommendation(r, answer.total()) : null;
         return new Answers.DensityAnswer(scope(r, answer.plan()), points, sessions,
                 "Wilson score interval (1927), 95%", fit, recommendation, thin(sessions));
-    }
-
-    /** Hooks for the knee fit and ad-cap recommendation (statistics core, issue #4). */
-    public interface DensityExtras {
-        Object fit(MetricRequest request, List<Answers.DensityPoint> points);
-
-        Object recommendation(MetricRequest request, List<Answers.DensityPoint> points);
     }
 
     public Answers.DepthAnswer depth(MetricRequest r) {
@@ -116,7 +108,13 @@ public class MetricsService {
                     marginal, marginal == null ? null : Money.decimal(marginal)));
             previous = pages == 11 ? null : perSession;
         }
-        return new Answers.DepthAnswer(scope(r, answer.plan()), points, total, null, thin(total));
+        List<Answers.DepthPoint> curve = points.stream().filter(p -> p.pages() <= 10
+                && p.sessions() >= KneeAnalysis.MIN_POINT_SESSIONS).toList();
+        KneeReport fit = total < MIN_SESSIONS || curve.size() < 4 ? null : knees.curve(
+                curve.stream().mapToDouble(Answers.DepthPoint::pages).toArray(),
+                curve.stream().mapToDouble(Answers.DepthPoint::revenuePerSessionMicros).toArray(),
+                curve.stream().mapToDouble(Answers.DepthPoint::sessions).toArray(), "revenue micros per page");
+        return new Answers.DepthAnswer(scope(r, answer.plan()), points, total, fit, thin(total));
     }
 
     public Answers.EngagementAnswer engagement(MetricRequest r) {
@@ -139,7 +137,13 @@ public class MetricsService {
                     t.pageviews(), t.revenueMicros(), Money.finite(perPage), Money.decimal(perPage),
                     Money.finite(perPage * 1000), Money.decimal(perPage * 1000)));
         }
-        return new Answers.EngagementAnswer(scope(r, answer.plan()), points, measured, unmeasured, null,
+        List<Answers.EngagementPoint> curve = points.stream().filter(p -> p.pageviews() >= KneeAnalysis.MIN_POINT_SESSIONS
+                && p.revenuePerPageviewMicros() != null).toList();
+        KneeReport fit = measured < MIN_SESSIONS || curve.size() < 4 ? null : knees.curve(
+                curve.stream().mapToDouble(p -> midpointSeconds(p.bucket())).toArray(),
+                curve.stream().mapToDouble(Answers.EngagementPoint::revenuePerPageviewMicros).toArray(),
+                curve.stream().mapToDouble(Answers.EngagementPoint::pageviews).toArray(), "revenue micros per second");
+        return new Answers.EngagementAnswer(scope(r, answer.plan()), points, measured, unmeasured, fit,
                 measured < MIN_SESSIONS ? "fewer than " + MIN_SESSIONS + " pageviews with engaged time in this segment"
                         : null);
     }
@@ -260,6 +264,13 @@ public class MetricsService {
 
     private static Answers.SeriesPoint point(String at, SessionTotals t, Metric metric) {
         return new Answers.SeriesPoint(at, Money.finite(metric.value(t)), metric.numerator(t), metric.denominator(t));
+    }
+
+    /** A bucket's representative engaged time in seconds (the 120+ bucket is placed at 180 s). */
+    static double midpointSeconds(int bucket) {
+        long lower = EngagedBuckets.LOWER_MS[bucket];
+        long upper = bucket + 1 < EngagedBuckets.LOWER_MS.length ? EngagedBuckets.LOWER_MS[bucket + 1] : 240_000;
+        return (lower + upper) / 2000.0;
     }
 
     static String thin(long sessions) {

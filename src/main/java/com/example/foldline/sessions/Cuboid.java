@@ -32,7 +32,8 @@ public record Cuboid(int id, Set<Dim> dims, int rank) {
             of(12, 2, Dim.ENTRY_ADS, V), of(13, 4, Dim.ENTRY_ADS, D, S, V), of(14, 3, Dim.ENTRY_ADS, C),
             of(15, 1, Dim.PAGES), of(16, 4, Dim.PAGES, D, S, V), of(17, 3, Dim.PAGES, C),
             of(18, 5, Dim.ENTRY_PATH), of(19, 6, Dim.ENTRY_PATH, D),
-            of(20, 2, Dim.HOUR), of(21, 5, Dim.HOUR, D, S, V), of(22, 4, Dim.HOUR, C),
+            of(20, 2, Dim.HOUR), of(21, 3, Dim.HOUR, D), of(22, 4, Dim.HOUR, C), of(25, 3, Dim.HOUR, S),
+            of(26, 3, Dim.HOUR, V),
             of(23, 3, D, S, V), of(24, 3, C, D));
 
     /** Page-level views (table rollup_page). */

@@ -31,7 +31,7 @@ public class RollupRebuild {
             sessions.lockSite(siteId);
             rollups.clear(siteId);
             jdbc.update("DELETE FROM session_fact WHERE site_id = ? AND origin = 'tag'", siteId);
-            jdbc.update("UPDATE session_fact SET rolled_up = FALSE, page_detail = '' WHERE site_id = ?", siteId);
+            jdbc.update("UPDATE session_fact SET rolled_up = FALSE WHERE site_id = ?", siteId);
             jdbc.update("DELETE FROM session_inbox WHERE site_id = ?", siteId);
             jdbc.update("""
                     INSERT INTO session_inbox (site_id, visitor, ts)

@@ -32,7 +32,9 @@ class RollupWriter {
         if (rows.isEmpty()) {
             return;
         }
-        int[][] updated = jdbc.batchUpdate("""
+        // cells of days the table has no rows for yet (bulk loads of history) are inserted without trying updates
+        int[][] updated = !hasRows("rollup_session", siteId, rows.stream().map(e -> e.getKey().day()).toList())
+                ? allMissing(rows.size()) : jdbc.batchUpdate("""
                         UPDATE rollup_session SET sessions = sessions + ?, bounces = bounces + ?,
                                pageviews = pageviews + ?, pageviews_sq = pageviews_sq + ?, engaged_ms = engaged_ms + ?,
                                engaged_sq = engaged_sq + ?, revenue_micros = revenue_micros + ?,
@@ -117,7 +119,8 @@ class RollupWriter {
         if (rows.isEmpty()) {
             return;
         }
-        int[][] updated = jdbc.batchUpdate("""
+        int[][] updated = !hasRows("rollup_page", siteId, rows.stream().map(e -> e.getKey().day()).toList())
+                ? allMissing(rows.size()) : jdbc.batchUpdate("""
                         UPDATE rollup_page SET pageviews = pageviews + ?, exits = exits + ?, engaged_ms = engaged_ms + ?,
                                revenue_micros = revenue_micros + ?, revenue_sq = revenue_sq + ?,
                                impressions = impressions + ?, viewable_impressions = viewable_impressions + ?,
@@ -162,6 +165,19 @@ class RollupWriter {
         ps.setInt(18, k.ads());
         ps.setInt(19, k.position());
         ps.setInt(20, k.engagedBucket());
+    }
+
+    private boolean hasRows(String table, long siteId, List<java.time.LocalDate> days) {
+        java.time.LocalDate min = days.stream().min(java.util.Comparator.naturalOrder()).orElseThrow();
+        java.time.LocalDate max = days.stream().max(java.util.Comparator.naturalOrder()).orElseThrow();
+        // the table name is one of two constants, never input
+        return Boolean.TRUE.equals(jdbc.queryForObject("SELECT EXISTS (SELECT 1 FROM " + table
+                + " WHERE site_id = ? AND local_day BETWEEN ? AND ?)", Boolean.class, siteId, Date.valueOf(min),
+                Date.valueOf(max)));
+    }
+
+    private static int[][] allMissing(int n) {
+        return new int[][]{new int[n]};
     }
 
     private static <T> List<T> missing(List<T> rows, int[][] updated) {

@@ -116,13 +116,34 @@ class SessionRepository {
     }
 
     void insert(List<SessionFact> sessions, Instant now) {
+        insert(sessions, now, "");
+    }
+
+    /** Inserts sessions whose id is new for the site and origin; returns those that were inserted. */
+    List<SessionFact> insertImported(List<SessionFact> sessions, Instant now) {
+        int[][] counts = insert(sessions, now, " ON CONFLICT DO NOTHING");
+        List<SessionFact> fresh = new ArrayList<>(sessions.size());
+        int i = 0;
+        for (int[] batch : counts) {
+            for (int c : batch) {
+                if (c > 0) {
+                    fresh.add(sessions.get(i));
+                }
+                i++;
+            }
+        }
+        return fresh;
+    }
+
+    private int[][] insert(List<SessionFact> sessions, Instant now, String onConflict) {
         if (sessions.isEmpty()) {
-            return;
+            return new int[0][];
         }
         Timestamp updated = Timestamp.from(now);
-        jdbc.batchUpdate("INSERT INTO session_fact (" + SESSION_COLUMNS + """
+        return jdbc.batchUpdate("INSERT INTO session_fact (" + SESSION_COLUMNS + """
                         , rolled_up, updated_at)
-                        VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, TRUE, ?)""",
+                        VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, TRUE, ?)\
+                        """ + onConflict,
                 sessions, 1000, (ps, s) -> {
                     ps.setLong(1, s.siteId());
                     ps.setString(2, s.id());

@@ -1,0 +1,69 @@
+package com.example.foldline.demo;
+
+import java.time.Clock;
+import java.time.LocalDate;
+import java.time.ZoneId;
+import java.util.ArrayList;
+import java.util.List;
+
+import org.slf4j.Logger;
+import org.slf4j.LoggerFactory;
+import org.springframework.stereotype.Service;
+
+import com.example.foldline.accounts.Accounts;
+import com.example.foldline.sessions.BulkSessions;
+import com.example.foldline.sessions.SessionInput;
+import com.example.foldline.sites.Site;
+import com.example.foldline.sites.SiteSettings;
+import com.example.foldline.sites.Sites;
+
+/** Creates the invented publisher's sites and fills them with simulated history (docs/demo.md). */
+@Service
+public class DemoPublisher {
+
+    private static final Logger log = LoggerFactory.getLogger(DemoPublisher.class);
+    public static final String DEMO_USER = "demo";
+    public static final String DEMO_PASSWORD = "demo-password";
+
+    private final Sites sites;
+    private final Accounts accounts;
+    private final BulkSessions bulk;
+    private final Clock clock;
+
+    DemoPublisher(Sites sites, Accounts accounts, BulkSessions bulk, Clock clock) {
+        this.sites = sites;
+        this.accounts = accounts;
+        this.bulk = bulk;
+        this.clock = clock;
+    }
+
+    /** What was created. */
+    public record Seeded(List<Site> sites, long sessions, long millis) {
+    }
+
+    /** Creates the three sites (and the demo login) and simulates {@code days} days of traffic. */
+    public Seeded seed(long seed, int days, double scale) {
+        long started = System.nanoTime();
+        if (accounts.find(DEMO_USER).isEmpty()) {
+            accounts.create(DEMO_USER, DEMO_PASSWORD, false);
+        }
+        List<Site> created = new ArrayList<>();
+        long total = 0;
+        for (DemoScenario.SiteSpec spec : DemoScenario.SITES) {
+            Site site = sites.create(new SiteSettings(spec.name(), spec.domain(), spec.timezone(), spec.currency(),
+                    null, null, null));
+            sites.createIngestKey(site.id(), "demo tag");
+            created.add(site);
+            LocalDate last = LocalDate.now(clock.withZone(ZoneId.of(spec.timezone()))).minusDays(1);
+            DemoSimulator simulator = new DemoSimulator(spec, seed, scale, last);
+            for (LocalDate day = last.minusDays(days - 1L); !day.isAfter(last); day = day.plusDays(1)) {
+                List<SessionInput> sessions = simulator.day(day);
+                total += bulk.store(site, sessions);
+            }
+        }
+        long millis = (System.nanoTime() - started) / 1_000_000;
+        log.info("Demo publisher seeded: {} sites, {} sessions in {} ms (log in as '{}' / '{}')", created.size(), total,
+                millis, DEMO_USER, DEMO_PASSWORD);
+        return new Seeded(created, total, millis);
+    }
+}

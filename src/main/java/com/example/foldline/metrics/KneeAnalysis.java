@@ -1,0 +1,233 @@
+package com.example.foldline.metrics;
+
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+import java.util.OptionalDouble;
+
+import org.springframework.stereotype.Component;
+
+import com.example.foldline.sessions.Dim;
+import com.example.foldline.sessions.Group;
+import com.example.foldline.sessions.PageTotals;
+import com.example.foldline.sessions.Rollups;
+import com.example.foldline.sessions.SessionTotals;
+import com.example.foldline.stats.AdCapRecommender;
+import com.example.foldline.stats.Breakpoint;
+import com.example.foldline.stats.CandidateModel;
+import com.example.foldline.stats.Kneedle;
+import com.example.foldline.stats.NoFit;
+import com.example.foldline.stats.SegmentedFit;
+import com.example.foldline.stats.SegmentedLogistic;
+import com.example.foldline.stats.SegmentedLogisticFit;
+import com.example.foldline.stats.SegmentedLogisticResult;
+import com.example.foldline.stats.SegmentedOptions;
+import com.example.foldline.stats.SegmentedRegression;
+import com.example.foldline.stats.SegmentedResult;
+import com.example.foldline.stats.Slope;
+
+/**
+ * Runs the statistics core on metric answers: the knee of bounce against entry-page ads, the ad-cap recommendation,
+ * and knees of saturating curves. Thin data gives a notice instead of a knee.
+ */
+@Component
+class KneeAnalysis {
+
+    /** Points with fewer sessions are left out of fits (they are still shown). */
+    static final long MIN_POINT_SESSIONS = 30;
+    static final long MIN_TOTAL_SESSIONS = MetricsService.MIN_SESSIONS;
+    static final int BOOTSTRAP = 200;
+
+    private final Rollups rollups;
+
+    KneeAnalysis(Rollups rollups) {
+        this.rollups = rollups;
+    }
+
+    /** Segmented logistic (default) or weighted linear fit of bounce rate on ads on the entry page. */
+    FitSummary density(List<Answers.DensityPoint> points, String model) {
+        List<Answers.DensityPoint> used = points.stream().filter(p -> p.sessions() >= MIN_POINT_SESSIONS).toList();
+        long total = used.stream().mapToLong(Answers.DensityPoint::sessions).sum();
+        if (total < MIN_TOTAL_SESSIONS || used.size() < 4) {
+            return FitSummary.none("not enough data for a knee: " + used.size() + " ad counts with at least "
+                    + MIN_POINT_SESSIONS + " sessions, " + total + " sessions in all (need 4 and " + MIN_TOTAL_SESSIONS
+                    + ")");
+        }
+        double[] x = used.stream().mapToDouble(Answers.DensityPoint::entryAds).toArray();
+        long[] bounces = used.stream().mapToLong(Answers.DensityPoint::bounces).toArray();
+        long[] sessions = used.stream().mapToLong(Answers.DensityPoint::sessions).toArray();
+        if (model.equals("linear")) {
+            double[] y = new double[x.length];
+            double[] w = new double[x.length];
+            for (int i = 0; i < x.length; i++) {
+                y[i] = (double) bounces[i] / sessions[i];
+                w[i] = sessions[i];
+            }
+            return linear(x, y, w, "bounce rate per ad", 2, true);
+        }
+        SegmentedLogisticResult result = SegmentedLogistic.fit(x, bounces, sessions,
+                SegmentedOptions.defaults().withMaxBreakpoints(1));
+        if (result instanceof NoFit no) {
+            return FitSummary.none("no fit: " + no.message());
+        }
+        SegmentedLogisticFit fit = (SegmentedLogisticFit) result;
+        List<FitSummary.CurvePoint> curve = new ArrayList<>();
+        double lo = x[0];
+        double hi = x[x.length - 1];
+        for (int i = 0; i <= 48; i++) {
+            double at = lo + (hi - lo) * i / 48;
+            curve.add(new FitSummary.CurvePoint(at, fit.predictProbability(at)));
+        }
+        boolean breakFound = fit.breakpointCount() > 0 && fit.davies() != null && fit.davies().pValue() < 0.05;
+        String verdict;
+        if (breakFound) {
+            Breakpoint b = fit.breakpoints().get(0);
+            double before = (fit.predictProbability(b.estimate()) - fit.predictProbability(lo)) / (b.estimate() - lo);
+            double after = (fit.predictProbability(hi) - fit.predictProbability(b.estimate())) / (hi - b.estimate());
+            verdict = (Math.abs(before) * 100 < 1
+                    ? String.format(Locale.ROOT, "bounce stays about flat up to %.1f ads", b.estimate())
+                    : String.format(Locale.ROOT, "bounce %s about %.1f points per extra ad up to %.1f ads",
+                    before > 0 ? "rises" : "falls", Math.abs(before) * 100, b.estimate()))
+                    + String.format(Locale.ROOT, " (95%% interval %.1f to %.1f), then %s about %.1f points per extra ad",
+                    b.lower(), b.upper(), after > 0 ? "rises" : "falls", Math.abs(after) * 100);
+        } else {
+            double per = (fit.predictProbability(hi) - fit.predictProbability(lo)) / (hi - lo) * 100;
+            verdict = String.format(Locale.ROOT, "no clear knee: the break test finds no change of slope (p = %s); "
+                    + "bounce changes about %.1f points per extra ad throughout", p(fit.davies() == null ? Double.NaN
+                    : fit.davies().pValue()), per);
+        }
+        return new FitSummary("segmented logistic regression (binomial GLM with a hinge; Muggeo 2003)",
+                fit.breakpointCount(), fit.selectionReason(), candidates(fit.candidates()), breakpoints(fit.breakpoints()),
+                slopes(fit.slopes(), "log-odds per ad"), fit.deviance(), "deviance",
+                new FitSummary.BreakTest("Davies (2002), likelihood-ratio version",
+                        fit.davies() == null ? null : finite(fit.davies().pValue()), breakFound),
+                verdict, curve, null);
+    }
+
+    /** Weighted segmented linear regression with up to {@code maxBreaks} breakpoints chosen by BIC. */
+    FitSummary linear(double[] x, double[] y, double[] w, String unit, int maxBreaks, boolean bootstrap) {
+        SegmentedOptions options = SegmentedOptions.defaults().withMaxBreakpoints(maxBreaks);
+        if (bootstrap) {
+            options = options.withBootstrap(BOOTSTRAP);
+        }
+        SegmentedResult result;
+        try {
+            result = SegmentedRegression.fit(x, y, w, options);
+        } catch (IllegalArgumentException e) {
+            return FitSummary.none("no fit: " + e.getMessage());
+        }
+        if (result instanceof NoFit no) {
+            return FitSummary.none("no fit: " + no.message());
+        }
+        SegmentedFit fit = (SegmentedFit) result;
+        List<FitSummary.CurvePoint> curve = new ArrayList<>();
+        for (int i = 0; i <= 48; i++) {
+            double at = x[0] + (x[x.length - 1] - x[0]) * i / 48;
+            curve.add(new FitSummary.CurvePoint(at, fit.predict(at)));
+        }
+        boolean breakFound = fit.breakpointCount() > 0 && fit.davies() != null && fit.davies().pValue() < 0.05;
+        String verdict = breakFound
+                ? String.format(Locale.ROOT, "the slope changes at %.1f (95%% interval %.1f to %.1f)",
+                fit.breakpoints().get(0).estimate(), fit.breakpoints().get(0).lower(), fit.breakpoints().get(0).upper())
+                : "no clear knee: the break test finds no change of slope (p = "
+                + p(fit.davies() == null ? Double.NaN : fit.davies().pValue()) + ")";
+        return new FitSummary("segmented linear regression, weighted (Muggeo 2003)", fit.breakpointCount(),
+                fit.selectionReason(), candidates(fit.candidates()), breakpoints(fit.breakpoints()),
+                slopes(fit.slopes(), unit), fit.residualSumOfSquares(), "weighted residual sum of squares",
+                new FitSummary.BreakTest("Davies (2002)", fit.davies() == null ? null : finite(fit.davies().pValue()),
+                        breakFound), verdict, curve, null);
+    }
+
+    /** Kneedle on a saturating curve, with the segmented fit as a second opinion. */
+    KneeReport curve(double[] x, double[] y, double[] w, String unit) {
+        Kneedle.Result k = Kneedle.find(x, y);
+        KneeReport.Kneedle kneedle = new KneeReport.Kneedle(k.found(), k.found() ? k.kneeX() : null, k.allKneeX(),
+                1.0, k.curve() == null ? null : k.curve().name().toLowerCase(Locale.ROOT),
+                k.direction() == null ? null : k.direction().name().toLowerCase(Locale.ROOT), k.found() ? null : k.reason());
+        return new KneeReport(kneedle, linear(x, y, w, unit, 1, false));
+    }
+
+    /** The ad-cap recommendation from page-level rollups of the same segment. */
+    CapAdvice recommendation(MetricRequest r, SessionTotals current) {
+        Rollups.PageAnswer pages = rollups.pages(r.site().id(), r.filter(), List.of(Dim.ADS, Dim.POSITION), false);
+        List<AdCapRecommender.PageStats> all = new ArrayList<>();
+        List<AdCapRecommender.EntryStats> entry = new ArrayList<>();
+        List<AdCapRecommender.PageStats> later = new ArrayList<>();
+        java.util.Map<Integer, PageTotals> byAds = new java.util.TreeMap<>();
+        for (Group<PageTotals> g : pages.groups()) {
+            int ads = g.number(Dim.ADS);
+            PageTotals t = g.totals();
+            byAds.merge(ads, t, PageTotals::plus);
+            if (g.number(Dim.POSITION) == 0) {
+                entry.add(new AdCapRecommender.EntryStats(ads, t.pageviews(), t.exits(), t.revenueMicros(), t.revenueSq()));
+            } else {
+                later.add(new AdCapRecommender.PageStats(ads, t.pageviews(), t.exits(), t.revenueMicros(), t.revenueSq()));
+            }
+        }
+        byAds.forEach((ads, t) -> all.add(new AdCapRecommender.PageStats(ads, t.pageviews(), t.exits(),
+                t.revenueMicros(), t.revenueSq())));
+        if (all.isEmpty()) {
+            return null;
+        }
+        OptionalDouble perSession = current.sessions() == 0 ? OptionalDouble.empty()
+                : OptionalDouble.of((double) current.revenueMicros() / current.sessions());
+        AdCapRecommender.Options options = AdCapRecommender.Options.defaults();
+        AdCapRecommender.Recommendation rec = AdCapRecommender.recommend(all, perSession, options);
+        List<CapAdvice.CapOption> caps = new ArrayList<>();
+        Double probability = null;
+        for (AdCapRecommender.CapValue c : rec.caps()) {
+            caps.add(new CapAdvice.CapOption(c.adCount(), c.status().name().toLowerCase(Locale.ROOT), c.note(),
+                    c.pages(), finite(c.exitRate()), finite(c.revenuePerPageMicros()),
+                    c.sessionRpm() == null ? null : finite(c.sessionRpm().estimate()),
+                    c.sessionRpm() == null ? null : finite(c.sessionRpm().lower()),
+                    c.sessionRpm() == null ? null : finite(c.sessionRpm().upper()), finite(c.probabilityBest())));
+            if (rec.recommendedCap().isPresent() && rec.recommendedCap().get() == c.adCount()) {
+                probability = finite(c.probabilityBest());
+            }
+        }
+        Integer entryCap = null;
+        Integer laterCap = null;
+        Double pairProbability = null;
+        Double pairRpm = null;
+        String pairSummary = null;
+        if (!entry.isEmpty() && !later.isEmpty()) {
+            AdCapRecommender.TwoCapRecommendation two = AdCapRecommender.recommendEntryAndLater(entry, later,
+                    perSession, options);
+            pairSummary = two.summary();
+            if (two.recommended().isPresent()) {
+                entryCap = two.recommended().get().entryAdCount();
+                laterCap = two.recommended().get().laterAdCount();
+                pairProbability = finite(two.recommended().get().probabilityBest());
+                pairRpm = finite(two.recommended().get().sessionRpm().estimate());
+            }
+        }
+        return new CapAdvice(rec.recommendedCap().orElse(null), probability,
+                rec.currentSessionRpm().isPresent() ? rec.currentSessionRpm().getAsDouble() : null,
+                rec.expectedGainRpm().map(i -> finite(i.estimate())).orElse(null),
+                rec.expectedGainRpm().map(i -> finite(i.lower())).orElse(null),
+                rec.expectedGainRpm().map(i -> finite(i.upper())).orElse(null), rec.summary(), caps, entryCap,
+                laterCap, pairProbability, pairRpm, pairSummary, rec.resamples(), rec.caution());
+    }
+
+    private static List<FitSummary.Candidate> candidates(List<CandidateModel> models) {
+        return models.stream().map(c -> new FitSummary.Candidate(c.breakpoints(), c.bic())).toList();
+    }
+
+    private static List<FitSummary.BreakpointEstimate> breakpoints(List<Breakpoint> list) {
+        return list.stream().map(b -> new FitSummary.BreakpointEstimate(b.estimate(), finite(b.standardError()),
+                finite(b.lower()), finite(b.upper()), finite(b.bootstrapLower()), finite(b.bootstrapUpper()))).toList();
+    }
+
+    private static List<FitSummary.SlopeEstimate> slopes(List<Slope> list, String unit) {
+        return list.stream().map(s -> new FitSummary.SlopeEstimate(s.estimate(), finite(s.standardError()),
+                finite(s.lower()), finite(s.upper()), unit)).toList();
+    }
+
+    static Double finite(double v) {
+        return Double.isFinite(v) ? v : null;
+    }
+
+    private static String p(double value) {
+        return Double.isFinite(value) ? String.format(Locale.ROOT, "%.3g", value) : "n/a";
+    }
+}
