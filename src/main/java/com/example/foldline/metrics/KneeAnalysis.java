@@ -45,7 +45,7 @@ class KneeAnalysis {
     }
 
     /** Segmented logistic (default) or weighted linear fit of bounce rate on ads on the entry page. */
-    FitSummary density(List<Answers.DensityPoint> points, String model) {
+    static FitSummary density(List<Answers.DensityPoint> points, String model) {
         List<Answers.DensityPoint> used = points.stream().filter(p -> p.sessions() >= MIN_POINT_SESSIONS).toList();
         long total = used.stream().mapToLong(Answers.DensityPoint::sessions).sum();
         if (total < MIN_TOTAL_SESSIONS || used.size() < 4) {
@@ -65,6 +65,11 @@ class KneeAnalysis {
             }
             return linear(x, y, w, "bounce rate per ad", 2, true);
         }
+        return logistic(x, bounces, sessions, "bounce");
+    }
+
+    /** Segmented logistic fit of successes out of trials (one breakpoint at most), with a verdict in words. */
+    static FitSummary logistic(double[] x, long[] bounces, long[] sessions, String what) {
         SegmentedLogisticResult result = SegmentedLogistic.fit(x, bounces, sessions,
                 SegmentedOptions.defaults().withMaxBreakpoints(1));
         if (result instanceof NoFit no) {
@@ -85,16 +90,16 @@ class KneeAnalysis {
             double before = (fit.predictProbability(b.estimate()) - fit.predictProbability(lo)) / (b.estimate() - lo);
             double after = (fit.predictProbability(hi) - fit.predictProbability(b.estimate())) / (hi - b.estimate());
             verdict = (Math.abs(before) * 100 < 1
-                    ? String.format(Locale.ROOT, "bounce stays about flat up to %.1f ads", b.estimate())
-                    : String.format(Locale.ROOT, "bounce %s about %.1f points per extra ad up to %.1f ads",
+                    ? String.format(Locale.ROOT, "%s stays about flat up to %.1f ads", what, b.estimate())
+                    : String.format(Locale.ROOT, "%s %s about %.1f points per extra ad up to %.1f ads", what,
                     before > 0 ? "rises" : "falls", Math.abs(before) * 100, b.estimate()))
                     + String.format(Locale.ROOT, " (95%% interval %.1f to %.1f), then %s about %.1f points per extra ad",
                     b.lower(), b.upper(), after > 0 ? "rises" : "falls", Math.abs(after) * 100);
         } else {
             double per = (fit.predictProbability(hi) - fit.predictProbability(lo)) / (hi - lo) * 100;
             verdict = String.format(Locale.ROOT, "no clear knee: the break test finds no change of slope (p = %s); "
-                    + "bounce changes about %.1f points per extra ad throughout", p(fit.davies() == null ? Double.NaN
-                    : fit.davies().pValue()), per);
+                    + "%s changes about %.1f points per extra ad throughout", p(fit.davies() == null ? Double.NaN
+                    : fit.davies().pValue()), what, per);
         }
         return new FitSummary("segmented logistic regression (binomial GLM with a hinge; Muggeo 2003)",
                 fit.breakpointCount(), fit.selectionReason(), candidates(fit.candidates()), breakpoints(fit.breakpoints()),
@@ -105,7 +110,7 @@ class KneeAnalysis {
     }
 
     /** Weighted segmented linear regression with up to {@code maxBreaks} breakpoints chosen by BIC. */
-    FitSummary linear(double[] x, double[] y, double[] w, String unit, int maxBreaks, boolean bootstrap) {
+    static FitSummary linear(double[] x, double[] y, double[] w, String unit, int maxBreaks, boolean bootstrap) {
         SegmentedOptions options = SegmentedOptions.defaults().withMaxBreakpoints(maxBreaks);
         if (bootstrap) {
             options = options.withBootstrap(BOOTSTRAP);
@@ -139,10 +144,14 @@ class KneeAnalysis {
     }
 
     /** Kneedle on a saturating curve, with the segmented fit as a second opinion. */
-    KneeReport curve(double[] x, double[] y, double[] w, String unit) {
-        Kneedle.Result k = Kneedle.find(x, y);
+    static KneeReport curve(double[] x, double[] y, double[] w, String unit) {
+        return curve(x, y, w, unit, Kneedle.Options.defaults());
+    }
+
+    static KneeReport curve(double[] x, double[] y, double[] w, String unit, Kneedle.Options options) {
+        Kneedle.Result k = Kneedle.find(x, y, options);
         KneeReport.Kneedle kneedle = new KneeReport.Kneedle(k.found(), k.found() ? k.kneeX() : null, k.allKneeX(),
-                1.0, k.curve() == null ? null : k.curve().name().toLowerCase(Locale.ROOT),
+                options.sensitivity(), k.curve() == null ? null : k.curve().name().toLowerCase(Locale.ROOT),
                 k.direction() == null ? null : k.direction().name().toLowerCase(Locale.ROOT), k.found() ? null : k.reason());
         return new KneeReport(kneedle, linear(x, y, w, unit, 1, false));
     }

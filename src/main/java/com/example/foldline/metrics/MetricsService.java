@@ -82,7 +82,7 @@ public class MetricsService {
                     Money.finite(Metric.PAGES_PER_SESSION.value(t)), Money.finite(rpm), Money.decimal(rpm)));
         }
         long sessions = answer.total().sessions();
-        FitSummary fit = knees.density(points, model);
+        FitSummary fit = KneeAnalysis.density(points, model);
         CapAdvice recommendation = sessions >= MIN_SESSIONS ? knees.recommendation(r, answer.total()) : null;
         return new Answers.DensityAnswer(scope(r, answer.plan()), points, sessions,
                 "Wilson score interval (1927), 95%", fit, recommendation, thin(sessions));
@@ -110,7 +110,7 @@ public class MetricsService {
         }
         List<Answers.DepthPoint> curve = points.stream().filter(p -> p.pages() <= 10
                 && p.sessions() >= KneeAnalysis.MIN_POINT_SESSIONS).toList();
-        KneeReport fit = total < MIN_SESSIONS || curve.size() < 4 ? null : knees.curve(
+        KneeReport fit = total < MIN_SESSIONS || curve.size() < 4 ? null : KneeAnalysis.curve(
                 curve.stream().mapToDouble(Answers.DepthPoint::pages).toArray(),
                 curve.stream().mapToDouble(Answers.DepthPoint::revenuePerSessionMicros).toArray(),
                 curve.stream().mapToDouble(Answers.DepthPoint::sessions).toArray(), "revenue micros per page");
@@ -139,7 +139,7 @@ public class MetricsService {
         }
         List<Answers.EngagementPoint> curve = points.stream().filter(p -> p.pageviews() >= KneeAnalysis.MIN_POINT_SESSIONS
                 && p.revenuePerPageviewMicros() != null).toList();
-        KneeReport fit = measured < MIN_SESSIONS || curve.size() < 4 ? null : knees.curve(
+        KneeReport fit = measured < MIN_SESSIONS || curve.size() < 4 ? null : KneeAnalysis.curve(
                 curve.stream().mapToDouble(p -> midpointSeconds(p.bucket())).toArray(),
                 curve.stream().mapToDouble(Answers.EngagementPoint::revenuePerPageviewMicros).toArray(),
                 curve.stream().mapToDouble(Answers.EngagementPoint::pageviews).toArray(), "revenue micros per second");
