@@ -19,7 +19,7 @@ import com.example.foldline.sites.Sites;
 public class DemoCommand {
 
     private static final List<String> TABLES = List.of("rollup_session", "rollup_page", "session_fact",
-            "session_inbox", "impression", "page_end", "pageview", "ingest_key");
+            "ingest_batch", "sessionizer_state", "impression", "page_end", "pageview", "ingest_key");
 
     private final DemoPublisher publisher;
     private final Sites sites;

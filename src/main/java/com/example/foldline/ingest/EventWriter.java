@@ -6,12 +6,10 @@ import java.sql.Timestamp;
 import java.sql.Types;
 import java.time.Instant;
 import java.time.ZonedDateTime;
-import java.util.ArrayList;
 import java.util.List;
-import java.util.Map;
-import java.util.Set;
 
 import org.springframework.jdbc.core.JdbcTemplate;
+import org.springframework.jdbc.support.GeneratedKeyHolder;
 import org.springframework.stereotype.Repository;
 
 import com.example.foldline.sites.Site;
@@ -29,12 +27,30 @@ class EventWriter {
         this.jdbc = jdbc;
     }
 
-    int pageviews(Site site, List<Event.Pageview> rows, Instant receivedAt) {
+    /** Opens the request's batch: its id marks every row the request writes, for the sessionizer. */
+    long openBatch(Site site) {
+        GeneratedKeyHolder keys = new GeneratedKeyHolder();
+        jdbc.update(c -> {
+            PreparedStatement ps = c.prepareStatement("INSERT INTO ingest_batch (site_id) VALUES (?)", new String[]{"id"});
+            ps.setLong(1, site.id());
+            return ps;
+        }, keys);
+        return keys.getKey().longValue();
+    }
+
+    /** Records the newest pageview time of the batch (sessions close against it). */
+    void closeBatch(long batch, Instant newest) {
+        jdbc.update("UPDATE ingest_batch SET newest_ts = ? WHERE id = ?", newest == null ? null : Timestamp.from(newest),
+                batch);
+    }
+
+    int pageviews(Site site, long batch, List<Event.Pageview> rows, Instant receivedAt) {
         Timestamp received = Timestamp.from(receivedAt);
         int[][] counts = jdbc.batchUpdate("""
                         INSERT INTO pageview (site_id, id, ts, visitor, client_session, path, referrer, source, device,
-                                              browser, os, country, region, variant, ads, engaged_ms, received_at)
-                        VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)
+                                              browser, os, country, region, variant, ads, engaged_ms, received_at,
+                                              ingest_batch)
+                        VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)
                         ON CONFLICT DO NOTHING""", rows, rows.size(), (ps, e) -> {
                     ps.setLong(1, site.id());
                     ps.setString(2, e.id());
@@ -47,24 +63,27 @@ class EventWriter {
                     ps.setInt(15, e.ads());
                     setLong(ps, 16, e.engagedMs());
                     ps.setTimestamp(17, received);
+                    ps.setLong(18, batch);
                 });
         return stored(counts);
     }
 
     /** A page-end inserts, or raises the stored engaged time; an equal or smaller repeat changes nothing. */
-    int pageEnds(Site site, List<Event.PageEnd> rows, Instant receivedAt) {
+    int pageEnds(Site site, long batch, List<Event.PageEnd> rows, Instant receivedAt) {
         Timestamp received = Timestamp.from(receivedAt);
         int[][] counts = jdbc.batchUpdate("""
                         MERGE INTO page_end t
                         USING (VALUES (CAST(? AS BIGINT), CAST(? AS VARCHAR(64)), CAST(? AS BIGINT), CAST(? AS SMALLINT),
-                                       CAST(? AS TIMESTAMP WITH TIME ZONE)))
-                              AS s (site_id, pageview_id, engaged_ms, scroll_pct, received_at)
+                                       CAST(? AS TIMESTAMP WITH TIME ZONE), CAST(? AS BIGINT)))
+                              AS s (site_id, pageview_id, engaged_ms, scroll_pct, received_at, ingest_batch)
                         ON t.site_id = s.site_id AND t.pageview_id = s.pageview_id
                         WHEN MATCHED AND s.engaged_ms > t.engaged_ms THEN
-                            UPDATE SET engaged_ms = s.engaged_ms, scroll_pct = s.scroll_pct, received_at = s.received_at
+                            UPDATE SET engaged_ms = s.engaged_ms, scroll_pct = s.scroll_pct, received_at = s.received_at,
+                                       ingest_batch = s.ingest_batch
                         WHEN NOT MATCHED THEN
-                            INSERT (site_id, pageview_id, engaged_ms, scroll_pct, received_at)
-                            VALUES (s.site_id, s.pageview_id, s.engaged_ms, s.scroll_pct, s.received_at)""",
+                            INSERT (site_id, pageview_id, engaged_ms, scroll_pct, received_at, ingest_batch)
+                            VALUES (s.site_id, s.pageview_id, s.engaged_ms, s.scroll_pct, s.received_at,
+                                    s.ingest_batch)""",
                 rows, rows.size(), (ps, e) -> {
                     ps.setLong(1, site.id());
                     ps.setString(2, e.pageview());
@@ -75,16 +94,17 @@ class EventWriter {
                         ps.setInt(4, e.scrollPct());
                     }
                     ps.setTimestamp(5, received);
+                    ps.setLong(6, batch);
                 });
         return stored(counts);
     }
 
-    int impressions(Site site, List<Event.Impression> rows, Instant receivedAt) {
+    int impressions(Site site, long batch, List<Event.Impression> rows, Instant receivedAt) {
         Timestamp received = Timestamp.from(receivedAt);
         int[][] counts = jdbc.batchUpdate("""
                         INSERT INTO impression (site_id, id, pageview_id, slot, size, viewable, clicked, revenue_micros,
-                                                cpm_micros, received_at)
-                        VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)
+                                                cpm_micros, received_at, ingest_batch)
+                        VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)
                         ON CONFLICT DO NOTHING""", rows, rows.size(), (ps, e) -> {
                     ps.setLong(1, site.id());
                     ps.setString(2, e.id());
@@ -96,6 +116,7 @@ class EventWriter {
                     ps.setLong(8, e.revenueMicros());
                     setLong(ps, 9, e.cpmMicros());
                     ps.setTimestamp(10, received);
+                    ps.setLong(11, batch);
                 });
         return stored(counts);
     }
@@ -137,20 +158,6 @@ class EventWriter {
                     ps.setTimestamp(26, received);
                 });
         return stored(counts);
-    }
-
-    /**
-     * Tells the sessionizer what changed: each visitor with new pageviews (earliest time), and each pageview whose
-     * page-end or impressions arrived. Written in the ingest transaction, so no committed event is missed.
-     */
-    void inbox(Site site, Map<String, Instant> visitors, Set<String> pageviewIds) {
-        List<Object[]> rows = new ArrayList<>(visitors.size() + pageviewIds.size());
-        visitors.forEach((visitor, ts) -> rows.add(new Object[]{site.id(), visitor, null, Timestamp.from(ts)}));
-        pageviewIds.forEach(id -> rows.add(new Object[]{site.id(), null, id, null}));
-        if (!rows.isEmpty()) {
-            jdbc.batchUpdate("INSERT INTO session_inbox (site_id, visitor, pageview_id, ts) VALUES (?, ?, ?, ?)",
-                    rows, new int[]{Types.BIGINT, Types.VARCHAR, Types.VARCHAR, Types.TIMESTAMP});
-        }
     }
 
     /** Bounce: one pageview, unless the site counts a long enough single page as engaged (docs/metrics.md). */

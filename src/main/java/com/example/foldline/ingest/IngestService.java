@@ -6,10 +6,6 @@ import java.io.UncheckedIOException;
 import java.time.Clock;
 import java.time.Instant;
 import java.util.ArrayList;
-import java.util.HashMap;
-import java.util.HashSet;
-import java.util.Map;
-import java.util.Set;
 import java.util.List;
 
 import org.springframework.context.ApplicationEventPublisher;
@@ -66,6 +62,9 @@ public class IngestService {
                 throw new UncheckedIOException(e);
             }
             b.flush();
+            if (b.batchId >= 0) {
+                writer.closeBatch(b.batchId, b.newest);
+            }
             return b;
         });
         if (batch.pageviewsStored + batch.pageEndsStored + batch.impressionsStored + batch.sessionsStored > 0) {
@@ -92,6 +91,8 @@ public class IngestService {
         long pageEndsStored;
         long impressionsStored;
         long sessionsStored;
+        long batchId = -1;
+        Instant newest;
 
         Batch(Site site, Instant now) {
             this.site = site;
@@ -136,22 +137,27 @@ public class IngestService {
         }
 
         void flush() {
-            Map<String, Instant> visitors = new HashMap<>();
-            Set<String> pages = new HashSet<>();
-            pageviews.forEach(p -> visitors.merge(p.visitor(), p.ts(), (a, b) -> a.isBefore(b) ? a : b));
-            pageEnds.forEach(e -> pages.add(e.pageview()));
-            impressions.forEach(i -> pages.add(i.pageview()));
-            writer.inbox(site, visitors, pages);
+            if (pageviews.isEmpty() && pageEnds.isEmpty() && impressions.isEmpty() && sessions.isEmpty()) {
+                return;
+            }
+            if (batchId < 0) {
+                batchId = writer.openBatch(site);
+            }
+            for (Event.Pageview p : pageviews) {
+                if (newest == null || p.ts().isAfter(newest)) {
+                    newest = p.ts();
+                }
+            }
             if (!pageviews.isEmpty()) {
-                pageviewsStored += writer.pageviews(site, pageviews, now);
+                pageviewsStored += writer.pageviews(site, batchId, pageviews, now);
                 pageviews.clear();
             }
             if (!pageEnds.isEmpty()) {
-                pageEndsStored += writer.pageEnds(site, pageEnds, now);
+                pageEndsStored += writer.pageEnds(site, batchId, pageEnds, now);
                 pageEnds.clear();
             }
             if (!impressions.isEmpty()) {
-                impressionsStored += writer.impressions(site, impressions, now);
+                impressionsStored += writer.impressions(site, batchId, impressions, now);
                 impressions.clear();
             }
             if (!sessions.isEmpty()) {

@@ -32,12 +32,9 @@ public class RollupRebuild {
             rollups.clear(siteId);
             jdbc.update("DELETE FROM session_fact WHERE site_id = ? AND origin = 'tag'", siteId);
             jdbc.update("UPDATE session_fact SET rolled_up = FALSE WHERE site_id = ?", siteId);
-            jdbc.update("DELETE FROM session_inbox WHERE site_id = ?", siteId);
-            jdbc.update("""
-                    INSERT INTO session_inbox (site_id, visitor, ts)
-                    SELECT site_id, visitor, MIN(ts) FROM pageview WHERE site_id = ? GROUP BY site_id, visitor""",
-                    siteId);
+            jdbc.update("DELETE FROM ingest_batch WHERE site_id = ?", siteId);
         });
+        sessionizer.rebuildAll(siteId);
         return sessionizer.run(siteId);
     }
 }

@@ -8,7 +8,9 @@ import java.time.Instant;
 import java.time.LocalDate;
 import java.util.ArrayList;
 import java.util.Collection;
+import java.util.HashMap;
 import java.util.List;
+import java.util.Map;
 import java.util.Map;
 import java.util.Optional;
 
@@ -17,13 +19,9 @@ import org.springframework.jdbc.core.namedparam.MapSqlParameterSource;
 import org.springframework.jdbc.core.namedparam.NamedParameterJdbcTemplate;
 import org.springframework.stereotype.Repository;
 
-/** Reads the sessionizer's inbox and pageviews, and stores sessions. */
+/** Reads the sessionizer's work list (ingest batches) and pageviews, and stores sessions. */
 @Repository
 class SessionRepository {
-
-    /** An inbox entry: a visitor with the earliest changed time, or a pageview whose extras changed. */
-    record InboxEntry(long id, String visitor, String pageviewId, Instant ts) {
-    }
 
     private static final String SESSION_COLUMNS = """
             site_id, id, origin, visitor, client_session, start_ts, end_ts, local_day, local_hour, pageviews, bounce,
@@ -43,30 +41,57 @@ class SessionRepository {
         return !jdbc.queryForList("SELECT id FROM site WHERE id = ? FOR UPDATE", Long.class, siteId).isEmpty();
     }
 
-    List<InboxEntry> inbox(long siteId, int limit) {
-        return jdbc.query("""
-                        SELECT id, visitor, pageview_id, ts FROM session_inbox WHERE site_id = ?
-                        ORDER BY id LIMIT ?""",
-                (rs, i) -> new InboxEntry(rs.getLong(1), rs.getString(2), rs.getString(3), instant(rs, 4)),
+    /** Ids of committed ingest batches of the site not yet sessionized, oldest first. */
+    List<Long> batches(long siteId, int limit) {
+        return jdbc.queryForList("SELECT id FROM ingest_batch WHERE site_id = ? ORDER BY id LIMIT ?", Long.class,
                 siteId, limit);
     }
 
-    void deleteInbox(long siteId, List<Long> ids) {
-        for (List<Long> chunk : chunks(ids, 1000)) {
-            named.update("DELETE FROM session_inbox WHERE site_id = :site AND id IN (:ids)",
-                    new MapSqlParameterSource("site", siteId).addValue("ids", chunk));
-        }
+    Optional<Instant> newestOf(long siteId, List<Long> batches) {
+        Timestamp ts = named.queryForObject("""
+                        SELECT MAX(newest_ts) FROM ingest_batch WHERE site_id = :site AND id IN (:ids)""",
+                new MapSqlParameterSource("site", siteId).addValue("ids", batches), Timestamp.class);
+        return Optional.ofNullable(ts).map(Timestamp::toInstant);
     }
 
-    /** (visitor, ts) of the named pageviews that exist. */
-    List<InboxEntry> pageviewOwners(long siteId, Collection<String> pageviewIds) {
-        List<InboxEntry> owners = new ArrayList<>();
-        for (List<String> chunk : chunks(new ArrayList<>(pageviewIds), 1000)) {
-            owners.addAll(named.query("SELECT id, visitor, ts FROM pageview WHERE site_id = :site AND id IN (:ids)",
-                    new MapSqlParameterSource("site", siteId).addValue("ids", chunk),
-                    (rs, i) -> new InboxEntry(0, rs.getString(2), rs.getString(1), instant(rs, 3))));
+    /**
+     * Visitors touched by these batches, with the earliest pageview time touched: their new pageviews, and the
+     * pageviews whose page-end or impressions came in the batches. Extras of a pageview not yet stored are skipped;
+     * the pageview's own arrival rebuilds its session later.
+     */
+    Map<String, Instant> changedVisitors(long siteId, List<Long> batches) {
+        MapSqlParameterSource params = new MapSqlParameterSource("site", siteId).addValue("ids", batches);
+        Map<String, Instant> earliest = new HashMap<>();
+        for (String sql : List.of("""
+                        SELECT visitor, MIN(ts) FROM pageview WHERE site_id = :site AND ingest_batch IN (:ids)
+                        GROUP BY visitor""", """
+                        SELECT p.visitor, MIN(p.ts) FROM page_end e
+                        JOIN pageview p ON p.site_id = e.site_id AND p.id = e.pageview_id
+                        WHERE e.site_id = :site AND e.ingest_batch IN (:ids) GROUP BY p.visitor""", """
+                        SELECT p.visitor, MIN(p.ts) FROM impression i
+                        JOIN pageview p ON p.site_id = i.site_id AND p.id = i.pageview_id
+                        WHERE i.site_id = :site AND i.ingest_batch IN (:ids) GROUP BY p.visitor""")) {
+            named.query(sql, params, rs -> {
+                Instant ts = rs.getTimestamp(2).toInstant();
+                earliest.merge(rs.getString(1), ts, (a, b) -> a.isBefore(b) ? a : b);
+            });
         }
-        return owners;
+        return earliest;
+    }
+
+    /** Every visitor of the site with their first pageview time (for a rebuild). */
+    Map<String, Instant> allVisitors(long siteId) {
+        Map<String, Instant> visitors = new HashMap<>();
+        jdbc.query("SELECT visitor, MIN(ts) FROM pageview WHERE site_id = ? GROUP BY visitor",
+                rs -> {
+                    visitors.put(rs.getString(1), rs.getTimestamp(2).toInstant());
+                }, siteId);
+        return visitors;
+    }
+
+    void deleteBatches(long siteId, List<Long> ids) {
+        named.update("DELETE FROM ingest_batch WHERE site_id = :site AND id IN (:ids)",
+                new MapSqlParameterSource("site", siteId).addValue("ids", ids));
     }
 
     /** Built sessions of these visitors that end at or after {@code endFrom}. */
@@ -216,16 +241,23 @@ class SessionRepository {
                 });
     }
 
-    /** The newest event time of the site: pageviews, and imported session ends. */
+    /** The newest pageview time the sessionizer has seen on the site. */
     Optional<Instant> newestEventTime(long siteId) {
-        Timestamp ts = jdbc.queryForObject("SELECT max(ts) FROM pageview WHERE site_id = ?", Timestamp.class, siteId);
-        return Optional.ofNullable(ts).map(Timestamp::toInstant);
+        return jdbc.queryForList("SELECT newest_ts FROM sessionizer_state WHERE site_id = ?", Timestamp.class, siteId)
+                .stream().findFirst().map(Timestamp::toInstant);
     }
 
-    List<Long> siteIdsWithWork() {
-        return jdbc.queryForList("""
-                SELECT DISTINCT site_id FROM session_inbox
-                UNION SELECT DISTINCT site_id FROM session_fact WHERE closed = FALSE OR rolled_up = FALSE""", Long.class);
+    void raiseNewestEventTime(long siteId, Instant ts) {
+        Optional<Instant> current = newestEventTime(siteId);
+        if (current.isEmpty()) {
+            jdbc.update("INSERT INTO sessionizer_state (site_id, newest_ts) VALUES (?, ?)", siteId, Timestamp.from(ts));
+        } else if (ts.isAfter(current.get())) {
+            jdbc.update("UPDATE sessionizer_state SET newest_ts = ? WHERE site_id = ?", Timestamp.from(ts), siteId);
+        }
+    }
+
+    List<Long> siteIds() {
+        return jdbc.queryForList("SELECT id FROM site ORDER BY id", Long.class);
     }
 
     private static SessionFact session(ResultSet rs, int row) throws SQLException {

@@ -22,7 +22,8 @@ import com.example.foldline.sites.Sites;
 /**
  * Turns stored pageviews into sessions and keeps the rollups in step (docs/metrics.md, "Sessions").
  * <p>
- * Work arrives through the inbox that ingest fills in the same transaction as the events. For each visitor touched,
+ * Work arrives as ingest batches: each committed ingest request leaves one row, and its events carry its id. For
+ * each visitor touched,
  * the sessions that could be affected (those ending within the timeout of the earliest changed pageview, and all
  * later ones) are rebuilt from the stored pageviews; their old rollup contributions are subtracted and the new ones
  * added. So a late pageview, a page-end after its session closed, or an impression before its pageview all end up
@@ -32,7 +33,7 @@ import com.example.foldline.sites.Sites;
 public class Sessionizer {
 
     private static final Logger log = LoggerFactory.getLogger(Sessionizer.class);
-    private static final int INBOX_BATCH = 20_000;
+    private static final int BATCHES_PER_RUN = 20;
     private static final int VISITOR_CHUNK = 1_000;
 
     private final SessionRepository repository;
@@ -41,7 +42,11 @@ public class Sessionizer {
     private final TransactionTemplate tx;
     private final Clock clock;
 
-    Sessionizer(SessionRepository repository, RollupWriter rollups, Sites sites, TransactionTemplate tx, Clock clock) {
+    private final boolean scheduled;
+
+    Sessionizer(SessionRepository repository, RollupWriter rollups, Sites sites, TransactionTemplate tx, Clock clock,
+                @org.springframework.beans.factory.annotation.Value("${foldline.sessions.enabled:true}") boolean scheduled) {
+        this.scheduled = scheduled;
         this.repository = repository;
         this.rollups = rollups;
         this.sites = sites;
@@ -50,11 +55,14 @@ public class Sessionizer {
     }
 
     /** What one run did. */
-    public record Report(long siteId, long inboxEntries, long sessionsWritten, long sessionsClosed, long importsRolledUp) {
+    public record Report(long siteId, long batches, long sessionsWritten, long sessionsClosed, long importsRolledUp) {
     }
 
     @Scheduled(fixedDelayString = "${foldline.sessions.interval:PT5S}", initialDelayString = "PT10S")
     void scheduled() {
+        if (!scheduled) {
+            return;
+        }
         try {
             runAll();
         } catch (RuntimeException e) {
@@ -65,7 +73,7 @@ public class Sessionizer {
     /** Processes every site with pending work. */
     public List<Report> runAll() {
         List<Report> reports = new ArrayList<>();
-        for (long siteId : repository.siteIdsWithWork()) {
+        for (long siteId : repository.siteIds()) {
             reports.add(run(siteId));
         }
         return reports;
@@ -77,7 +85,7 @@ public class Sessionizer {
         long inbox = 0;
         long written = 0;
         while (true) {
-            long[] batch = tx.execute(status -> processInboxBatch(site));
+            long[] batch = tx.execute(status -> processBatches(site));
             if (batch[0] == 0) {
                 break;
             }
@@ -109,24 +117,41 @@ public class Sessionizer {
         return (newest.isAfter(now) ? newest : now).minus(Duration.ofMinutes(site.sessionTimeoutMinutes()));
     }
 
-    private long[] processInboxBatch(Site site) {
+    private long[] processBatches(Site site) {
         repository.lockSite(site.id());
-        List<SessionRepository.InboxEntry> entries = repository.inbox(site.id(), INBOX_BATCH);
-        if (entries.isEmpty()) {
+        List<Long> batches = repository.batches(site.id(), BATCHES_PER_RUN);
+        if (batches.isEmpty()) {
             return new long[]{0, 0};
         }
-        Map<String, Instant> earliest = new HashMap<>();
-        List<String> pageviewIds = new ArrayList<>();
-        for (SessionRepository.InboxEntry e : entries) {
-            if (e.visitor() != null) {
-                earliest.merge(e.visitor(), e.ts(), Sessionizer::min);
-            } else {
-                pageviewIds.add(e.pageviewId());
-            }
+        repository.newestOf(site.id(), batches).ifPresent(ts -> repository.raiseNewestEventTime(site.id(), ts));
+        long written = rebuildVisitors(site, repository.changedVisitors(site.id(), batches));
+        repository.deleteBatches(site.id(), batches);
+        return new long[]{batches.size(), written};
+    }
+
+    /** Rebuilds every session of the site from its pageviews (the rollups must have been cleared). */
+    long rebuildAll(long siteId) {
+        Site site = sites.require(siteId);
+        Map<String, Instant> visitors = tx.execute(status -> {
+            repository.lockSite(siteId);
+            return repository.allVisitors(siteId);
+        });
+        long written = 0;
+        List<String> all = new ArrayList<>(visitors.keySet());
+        for (List<String> chunk : SessionRepository.chunks(all, 20 * VISITOR_CHUNK)) {
+            Map<String, Instant> part = new HashMap<>();
+            chunk.forEach(v -> part.put(v, visitors.get(v)));
+            written += tx.execute(status -> {
+                repository.lockSite(siteId);
+                return rebuildVisitors(site, part);
+            });
         }
-        // a page-end or impression without its pageview waits: the pageview's own arrival rebuilds its session
-        for (SessionRepository.InboxEntry owner : repository.pageviewOwners(site.id(), pageviewIds)) {
-            earliest.merge(owner.visitor(), owner.ts(), Sessionizer::min);
+        return written;
+    }
+
+    private long rebuildVisitors(Site site, Map<String, Instant> earliest) {
+        if (earliest.isEmpty()) {
+            return 0;
         }
         Duration timeout = Duration.ofMinutes(site.sessionTimeoutMinutes());
         Instant closeBefore = closeBefore(site);
@@ -137,8 +162,7 @@ public class Sessionizer {
             written += rebuild(site, chunk, earliest, timeout, closeBefore, contributions);
         }
         rollups.apply(site.id(), contributions);
-        repository.deleteInbox(site.id(), entries.stream().map(SessionRepository.InboxEntry::id).toList());
-        return new long[]{entries.size(), written};
+        return written;
     }
 
     private long rebuild(Site site, List<String> visitors, Map<String, Instant> earliest, Duration timeout,

@@ -1,0 +1,38 @@
+package com.example.foldline.bench;
+
+import java.util.Arrays;
+
+/** Entry point of the benchmark commands (docs/benchmarks.md): {@code ingest}, {@code metrics}, {@code stats}. */
+public final class Bench {
+
+    private Bench() {
+    }
+
+    public static void main(String[] args) throws Exception {
+        String name = args.length == 0 ? "ingest" : args[0];
+        String[] rest = args.length == 0 ? new String[0] : Arrays.copyOfRange(args, 1, args.length);
+        switch (name) {
+            case "ingest" -> IngestBenchmark.main(rest);
+            case "metrics" -> MetricsBenchmark.main(rest);
+            case "stats" -> {
+                com.example.foldline.stats.StatsBenchmark.main(rest);
+                com.example.foldline.stats.StatsBenchmarkB.main(rest);
+            }
+            default -> throw new IllegalArgumentException("unknown benchmark " + name + " (ingest, metrics, stats)");
+        }
+        System.exit(0);
+    }
+
+    static long arg(String[] args, String name, long fallback) {
+        for (int i = 0; i + 1 < args.length; i++) {
+            if (args[i].equals("--" + name)) {
+                return Long.parseLong(args[i + 1]);
+            }
+        }
+        return fallback;
+    }
+
+    static boolean flag(String[] args, String name) {
+        return Arrays.asList(args).contains("--" + name);
+    }
+}

@@ -1,0 +1,177 @@
+package com.example.foldline.bench;
+
+import java.net.URI;
+import java.net.http.HttpClient;
+import java.net.http.HttpRequest;
+import java.net.http.HttpResponse;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.sql.Connection;
+import java.sql.DriverManager;
+import java.sql.PreparedStatement;
+import java.sql.Timestamp;
+import java.time.Instant;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.SplittableRandom;
+import java.util.concurrent.atomic.AtomicLong;
+
+import org.flywaydb.core.Flyway;
+import org.springframework.boot.builder.SpringApplicationBuilder;
+import org.springframework.boot.web.server.context.WebServerApplicationContext;
+import org.springframework.context.ConfigurableApplicationContext;
+
+import com.example.foldline.FoldlineApplication;
+import com.example.foldline.sites.NewIngestKey;
+import com.example.foldline.sites.Site;
+import com.example.foldline.sites.SiteSettings;
+import com.example.foldline.sites.Sites;
+
+/**
+ * Issue #2 benchmark: N pageview events (default 1,000,000, fixed seed) posted as NDJSON in batches of 5,000 from 2
+ * concurrent clients to the running service on an H2 file, and, in the same run, the same rows inserted by plain
+ * JDBC batches (5,000 per batch, commit per batch) into a fresh H2 file with the same table and key. Prints both
+ * rates and their ratio. Run with -Xmx512m (the bench profile does).
+ */
+final class IngestBenchmark {
+
+    static final int BATCH = 5_000;
+    static final String H2_OPTIONS = ";MODE=PostgreSQL;DATABASE_TO_LOWER=TRUE;CASE_INSENSITIVE_IDENTIFIERS=TRUE;"
+            + "DEFAULT_NULL_ORDERING=HIGH;NON_KEYWORDS=VALUE,KEY" + System.getProperty("h2.extra", ";WRITE_DELAY=0");
+
+    private IngestBenchmark() {
+    }
+
+    /** One generated pageview. */
+    record Row(String id, Instant ts, String visitor, String path, String device, String source, String country,
+               int ads) {
+        String json() {
+            return "{\"type\":\"pageview\",\"id\":\"" + id + "\",\"ts\":" + ts.toEpochMilli() + ",\"visitor\":\""
+                    + visitor + "\",\"path\":\"" + path + "\",\"device\":\"" + device + "\",\"source\":\"" + source
+                    + "\",\"country\":\"" + country + "\",\"browser\":\"Lumen\",\"ads\":" + ads + "}";
+        }
+    }
+
+    static final String[] DEVICES = {"phone", "desktop", "tablet"};
+    static final String[] SOURCES = {"search", "social", "direct", "referral", "email"};
+    static final String[] COUNTRIES = {"PT", "ES", "FR", "DE", "US", "GB"};
+
+    /** Batch {@code b} of the deterministic event stream. */
+    static List<Row> batch(int b, Instant base) {
+        SplittableRandom r = new SplittableRandom(20261202L * 31 + b);
+        List<Row> rows = new ArrayList<>(BATCH);
+        for (int i = 0; i < BATCH; i++) {
+            long n = (long) b * BATCH + i;
+            rows.add(new Row("pv-" + n, base.plusMillis(n * 7), "v" + r.nextInt(400_000), "/article/" + r.nextInt(5_000),
+                    DEVICES[r.nextInt(3)], SOURCES[r.nextInt(5)], COUNTRIES[r.nextInt(6)], r.nextInt(13)));
+        }
+        return rows;
+    }
+
+    public static void main(String[] args) throws Exception {
+        long events = Bench.arg(args, "events", 1_000_000);
+        int batches = (int) Math.max(1, events / BATCH);
+        Instant base = Instant.now().minusSeconds(3 * 86_400);
+        System.out.printf("ingest benchmark: %,d pageviews in batches of %,d, max heap %d MB%n", (long) batches * BATCH,
+                BATCH, Runtime.getRuntime().maxMemory() >> 20);
+
+        Path appDir = Files.createTempDirectory("foldline-bench-app");
+        double httpRate;
+        try (ConfigurableApplicationContext app = new SpringApplicationBuilder(FoldlineApplication.class).run(
+                "--server.port=0", "--spring.main.banner-mode=off", "--logging.level.root=WARN",
+                "--spring.datasource.url=jdbc:h2:file:" + appDir.resolve("foldline") + H2_OPTIONS,
+                "--foldline.demo.enabled=false", "--foldline.admin.initial-password=bench-password",
+                "--foldline.sessions.enabled=false")) {
+            int port = ((WebServerApplicationContext) app).getWebServer().getPort();
+            Sites sites = app.getBean(Sites.class);
+            Site site = sites.create(new SiteSettings("Bench", "bench.example", "UTC", "EUR", null, null, null));
+            NewIngestKey key = sites.createIngestKey(site.id(), "bench");
+            URI uri = URI.create("http://127.0.0.1:" + port + "/api/v1/sites/" + site.id() + "/events");
+            HttpClient http = HttpClient.newBuilder().version(HttpClient.Version.HTTP_1_1).build();
+            // warm-up on a separate id range, not counted
+            post(http, uri, key.key(), batch(batches + 1, base));
+            AtomicLong accepted = new AtomicLong();
+            long start = System.nanoTime();
+            List<Thread> clients = new ArrayList<>();
+            for (int c = 0; c < 2; c++) {
+                int client = c;
+                Thread t = new Thread(() -> {
+                    for (int b = client; b < batches; b += 2) {
+                        accepted.addAndGet(post(http, uri, key.key(), batch(b, base)));
+                    }
+                });
+                clients.add(t);
+                t.start();
+            }
+            for (Thread t : clients) {
+                t.join();
+            }
+            double seconds = (System.nanoTime() - start) / 1e9;
+            httpRate = accepted.get() / seconds;
+            System.out.printf("HTTP ingest (2 clients, NDJSON): %,d accepted in %.1f s = %,.0f events/s%n",
+                    accepted.get(), seconds, httpRate);
+        }
+
+        Path refDir = Files.createTempDirectory("foldline-bench-ref");
+        String url = "jdbc:h2:file:" + refDir.resolve("reference") + H2_OPTIONS;
+        Flyway.configure().dataSource(url, "sa", "").locations("classpath:db/migration/common").load().migrate();
+        long start = System.nanoTime();
+        long rows = 0;
+        try (Connection c = DriverManager.getConnection(url, "sa", "")) {
+            c.setAutoCommit(false);
+            try (PreparedStatement ps = c.prepareStatement("""
+                    INSERT INTO pageview (site_id, id, ts, visitor, path, source, device, browser, country, ads,
+                                          received_at) VALUES (1, ?, ?, ?, ?, ?, ?, 'Lumen', ?, ?, ?)""")) {
+                Timestamp received = Timestamp.from(Instant.now());
+                for (int b = 0; b < batches; b++) {
+                    for (Row row : batch(b, base)) {
+                        ps.setString(1, row.id());
+                        ps.setTimestamp(2, Timestamp.from(row.ts()));
+                        ps.setString(3, row.visitor());
+                        ps.setString(4, row.path());
+                        ps.setString(5, row.source());
+                        ps.setString(6, row.device());
+                        ps.setString(7, row.country());
+                        ps.setInt(8, row.ads());
+                        ps.setTimestamp(9, received);
+                        ps.addBatch();
+                    }
+                    ps.executeBatch();
+                    c.commit();
+                    rows += BATCH;
+                }
+            }
+        }
+        double seconds = (System.nanoTime() - start) / 1e9;
+        double jdbcRate = rows / seconds;
+        System.out.printf("plain JDBC batch insert (1 connection): %,d rows in %.1f s = %,.0f rows/s%n", rows, seconds,
+                jdbcRate);
+        System.out.printf("ratio HTTP / plain JDBC = %.2f (goal >= 0.50)%n", httpRate / jdbcRate);
+    }
+
+    private static long post(HttpClient http, URI uri, String key, List<Row> rows) {
+        StringBuilder body = new StringBuilder(rows.size() * 200);
+        for (Row r : rows) {
+            body.append(r.json()).append('\n');
+        }
+        try {
+            HttpResponse<String> response = http.send(HttpRequest.newBuilder(uri)
+                            .header("Authorization", "Bearer " + key).header("Content-Type", "application/x-ndjson")
+                            .POST(HttpRequest.BodyPublishers.ofString(body.toString(), StandardCharsets.UTF_8)).build(),
+                    HttpResponse.BodyHandlers.ofString());
+            if (response.statusCode() == 503) {
+                Thread.sleep(200);
+                return post(http, uri, key, rows);
+            }
+            if (response.statusCode() != 200) {
+                throw new IllegalStateException("HTTP " + response.statusCode() + ": " + response.body());
+            }
+            String b = response.body();
+            int i = b.indexOf("\"accepted\":") + 11;
+            return Long.parseLong(b.substring(i, b.indexOf(',', i)));
+        } catch (Exception e) {
+            throw new IllegalStateException(e);
+        }
+    }
+}
