@@ -31,8 +31,8 @@ public class FoldlineApplication {
             String[] rest = Arrays.copyOfRange(args, 1, args.length);
             int status;
             try (ConfigurableApplicationContext context = new SpringApplicationBuilder(FoldlineApplication.class)
-                    .web(WebApplicationType.NONE).properties("foldline.demo.enabled=false",
-                            "spring.task.scheduling.enabled=false").run()) {
+                    .web(WebApplicationType.NONE)
+                    .run("--foldline.demo.enabled=false", "--foldline.sessions.enabled=false")) {
                 status = context.getBean(DemoCommand.class).run(rest, System.out, System.err);
             }
             System.exit(status);

@@ -1,5 +1,6 @@
 package com.example.foldline.accounts;
 
+import org.springframework.boot.autoconfigure.condition.ConditionalOnWebApplication;
 import org.springframework.context.annotation.Bean;
 import org.springframework.context.annotation.Configuration;
 import org.springframework.http.HttpMethod;
@@ -29,6 +30,7 @@ class SecurityConfig {
             "/favicon.ico"};
 
     @Bean
+    @ConditionalOnWebApplication(type = ConditionalOnWebApplication.Type.SERVLET)
     SecurityFilterChain securityFilterChain(HttpSecurity http, AccountProperties properties) throws Exception {
         http.authorizeHttpRequests(auth -> auth
                         .requestMatchers(PUBLIC).permitAll()

@@ -122,7 +122,7 @@ final class IngestBenchmark {
             c.setAutoCommit(false);
             try (PreparedStatement ps = c.prepareStatement("""
                     INSERT INTO pageview (site_id, id, ts, visitor, path, source, device, browser, country, ads,
-                                          received_at) VALUES (1, ?, ?, ?, ?, ?, ?, 'Lumen', ?, ?, ?)""")) {
+                                          received_at, ingest_batch) VALUES (1, ?, ?, ?, ?, ?, ?, 'Lumen', ?, ?, ?, 1)""")) {
                 Timestamp received = Timestamp.from(Instant.now());
                 for (int b = 0; b < batches; b++) {
                     for (Row row : batch(b, base)) {

@@ -1,11 +1,268 @@
 package com.example.foldline.bench;
 
-/** Placeholder replaced below. */
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.sql.Connection;
+import java.sql.DriverManager;
+import java.sql.ResultSet;
+import java.sql.Statement;
+import java.time.LocalDate;
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.SplittableRandom;
+
+import javax.sql.DataSource;
+
+import org.springframework.boot.WebApplicationType;
+import org.springframework.boot.builder.SpringApplicationBuilder;
+import org.springframework.context.ConfigurableApplicationContext;
+
+import com.example.foldline.FoldlineApplication;
+import com.example.foldline.demo.DemoPublisher;
+import com.example.foldline.metrics.MetricRequestFactory;
+import com.example.foldline.metrics.MetricsService;
+import com.example.foldline.sites.Site;
+
+/**
+ * Issue #3/#4 benchmark: loads the demo publisher at a chosen size (default 1,000,000 sessions over 90 days) into H2
+ * (and PostgreSQL with --pg), then times every metrics answer with filters varied as users vary them (median and
+ * p95 over --runs calls each), and in the same run answers the same questions with DuckDB scanning a raw sessions
+ * table holding the same sessions. Prints a table and the ratio of our p95 to DuckDB's.
+ */
 final class MetricsBenchmark {
+
+    static final String[] ANSWERS = {"overview", "density", "depth", "engagement", "geography", "pages", "timeseries"};
+    static final String[] FILTERS = {"", "device=phone", "source=search", "device=desktop&source=social", "country=US",
+            "device=phone&variant=stacked"};
+    static final int[] RANGES = {7, 28, 90};
+
     private MetricsBenchmark() {
     }
 
-    public static void main(String[] args) {
-        throw new UnsupportedOperationException("metrics benchmark not written yet");
+    record Question(String answer, int days, String filter) {
     }
+
+    public static void main(String[] args) throws Exception {
+        long sessions = Bench.arg(args, "sessions", 1_000_000);
+        int runs = (int) Bench.arg(args, "runs", 30);
+        boolean pg = Bench.flag(args, "pg");
+        double scale = sessions / (2250.0 * 90);
+        System.out.printf("metrics benchmark: about %,d sessions over 90 days (demo scale %.2f), %d calls per answer, "
+                + "max heap %d MB%n", sessions, scale, runs, Runtime.getRuntime().maxMemory() >> 20);
+        List<Question> questions = questions(runs);
+
+        Map<String, double[]> h2 = run("H2", h2Url(), "sa", "", scale, questions);
+        Map<String, double[]> postgres = null;
+        if (pg) {
+            String url = System.getProperty("pg.url", "jdbc:postgresql://127.0.0.1:5432/foldline_bench");
+            try (Connection c = DriverManager.getConnection(url, "foldline", "foldline"); Statement s = c.createStatement()) {
+                s.execute("DROP SCHEMA public CASCADE");
+                s.execute("CREATE SCHEMA public");
+            }
+            postgres = run("PostgreSQL", url, "foldline", "foldline", scale, questions);
+        }
+        Map<String, double[]> duck = duckdb(questions);
+
+        System.out.printf("%n%-11s %17s %17s %17s %12s%n", "answer", "H2 p50/p95 ms", "PostgreSQL p50/p95",
+                "DuckDB p50/p95", "H2/DuckDB p95");
+        for (String a : ANSWERS) {
+            double[] d = duck.get(a);
+            System.out.printf("%-11s %17s %17s %17s %12s%n", a, fmt(h2.get(a)), postgres == null ? "-" : fmt(postgres.get(a)),
+                    d == null ? "n/a" : fmt(d), d == null ? "n/a" : String.format("%.2f", h2.get(a)[1] / d[1]));
+        }
+    }
+
+    static String h2Url() throws Exception {
+        Path dir = Files.createTempDirectory("foldline-bench-metrics");
+        return "jdbc:h2:file:" + dir.resolve("foldline") + IngestBenchmark.H2_OPTIONS;
+    }
+
+    static List<Question> questions(int runs) {
+        SplittableRandom r = new SplittableRandom(42);
+        List<Question> qs = new ArrayList<>();
+        for (String a : ANSWERS) {
+            for (int i = 0; i < runs; i++) {
+                int days = RANGES[r.nextInt(RANGES.length)];
+                if (a.equals("timeseries") && r.nextBoolean()) {
+                    days = 7;
+                }
+                qs.add(new Question(a, days, FILTERS[r.nextInt(FILTERS.length)]));
+            }
+        }
+        return qs;
+    }
+
+    static Map<String, double[]> run(String name, String url, String user, String password, double scale,
+                                     List<Question> questions) {
+        try (ConfigurableApplicationContext app = new SpringApplicationBuilder(FoldlineApplication.class)
+                .web(WebApplicationType.NONE).run("--spring.main.banner-mode=off", "--logging.level.root=WARN",
+                        "--spring.datasource.url=" + url, "--spring.datasource.username=" + user,
+                        "--spring.datasource.password=" + password, "--foldline.demo.enabled=false",
+                        "--foldline.sessions.enabled=false", "--foldline.admin.initial-password=bench-password")) {
+            long t0 = System.nanoTime();
+            DemoPublisher.Seeded seeded = app.getBean(DemoPublisher.class).seed(20261202, 90, scale);
+            double load = (System.nanoTime() - t0) / 1e9;
+            System.out.printf("%s: loaded %,d sessions with rollups in %.1f s (%,.0f sessions/s)%n", name,
+                    seeded.sessions(), load, seeded.sessions() / load);
+            exportOnce(app.getBean(DataSource.class));
+            Site site = seeded.sites().stream().filter(s -> s.domain().startsWith("harborview")).findFirst().orElseThrow();
+            MetricsService metrics = app.getBean(MetricsService.class);
+            MetricRequestFactory requests = app.getBean(MetricRequestFactory.class);
+            LocalDate last = LocalDate.now(site.timezone()).minusDays(1);
+            Map<String, List<Double>> times = new LinkedHashMap<>();
+            for (int warm = 0; warm < 2; warm++) {
+                for (Question q : questions) {
+                    long start = System.nanoTime();
+                    call(metrics, requests, site, q, last);
+                    if (warm == 1) {
+                        times.computeIfAbsent(q.answer(), k -> new ArrayList<>()).add((System.nanoTime() - start) / 1e6);
+                    }
+                }
+            }
+            Map<String, double[]> result = new LinkedHashMap<>();
+            times.forEach((k, v) -> result.put(k, percentiles(v)));
+            return result;
+        }
+    }
+
+    static Object call(MetricsService metrics, MetricRequestFactory requests, Site site, Question q, LocalDate last) {
+        String query = "from=" + last.minusDays(q.days() - 1L) + "&to=" + last + (q.filter().isEmpty() ? "" : "&" + q.filter());
+        return switch (q.answer()) {
+            case "overview" -> metrics.overview(requests.request(site, "overview", query + "&compare=previous"));
+            case "density" -> metrics.density(requests.request(site, "density", query));
+            case "depth" -> metrics.depth(requests.request(site, "depth", query));
+            case "engagement" -> metrics.engagement(requests.request(site, "engagement", query));
+            case "geography" -> metrics.geography(requests.request(site, "geography", query));
+            case "pages" -> metrics.pages(requests.request(site, "pages", query));
+            default -> metrics.timeseries(requests.request(site, "timeseries", query + "&metric=bounceRate"
+                    + (q.days() <= 7 ? "&grain=hour" : "")));
+        };
+    }
+
+    /** The news site's closed sessions, kept for the DuckDB side of the comparison. */
+    private static List<Object[]> exported;
+    private static LocalDate exportedLast;
+
+    private static void exportOnce(DataSource ds) {
+        if (exported != null) {
+            return;
+        }
+        exported = new ArrayList<>();
+        try (Connection c = ds.getConnection(); Statement s = c.createStatement();
+             ResultSet rs = s.executeQuery("""
+                     SELECT f.local_day, f.local_hour, f.pageviews, f.bounce, f.engaged_ms, f.entry_path, f.entry_ads,
+                            f.source, f.device, f.browser, f.country, f.region, f.variant, f.revenue_micros,
+                            f.impressions, f.viewable_impressions, f.clicks
+                     FROM session_fact f JOIN site s ON s.id = f.site_id
+                     WHERE s.domain = 'harborview-daily.example' AND f.closed = TRUE""")) {
+            while (rs.next()) {
+                Object[] row = new Object[17];
+                for (int i = 0; i < 17; i++) {
+                    row[i] = rs.getObject(i + 1);
+                }
+                row[0] = rs.getObject(1, LocalDate.class);
+                exported.add(row);
+                if (exportedLast == null || ((LocalDate) row[0]).isAfter(exportedLast)) {
+                    exportedLast = (LocalDate) row[0];
+                }
+            }
+        } catch (Exception e) {
+            throw new IllegalStateException(e);
+        }
+    }
+
+    static Map<String, double[]> duckdb(List<Question> questions) throws Exception {
+        Map<String, List<Double>> times = new LinkedHashMap<>();
+        try (Connection c = DriverManager.getConnection("jdbc:duckdb:")) {
+            try (Statement s = c.createStatement()) {
+                s.execute("""
+                        CREATE TABLE sessions (local_day DATE, local_hour INTEGER, pageviews INTEGER, bounce BOOLEAN,
+                          engaged_ms BIGINT, entry_path VARCHAR, entry_ads INTEGER, source VARCHAR, device VARCHAR,
+                          browser VARCHAR, country VARCHAR, region VARCHAR, variant VARCHAR, revenue_micros BIGINT,
+                          impressions INTEGER, viewable_impressions INTEGER, clicks INTEGER)""");
+            }
+            var duck = c.unwrap(org.duckdb.DuckDBConnection.class);
+            try (var appender = duck.createAppender(org.duckdb.DuckDBConnection.DEFAULT_SCHEMA, "sessions")) {
+                for (Object[] row : exported) {
+                    appender.beginRow();
+                    appender.append(((LocalDate) row[0]).toString());
+                    appender.append(((Number) row[1]).intValue());
+                    appender.append(((Number) row[2]).intValue());
+                    appender.append((Boolean) row[3]);
+                    appender.append(((Number) row[4]).longValue());
+                    for (int i = 5; i <= 12; i++) {
+                        if (i == 6) {
+                            appender.append(((Number) row[6]).intValue());
+                        } else {
+                            appender.append(row[i] == null ? null : row[i].toString());
+                        }
+                    }
+                    appender.append(((Number) row[13]).longValue());
+                    appender.append(((Number) row[14]).intValue());
+                    appender.append(((Number) row[15]).intValue());
+                    appender.append(((Number) row[16]).intValue());
+                    appender.endRow();
+                }
+            }
+            System.out.printf("DuckDB: %,d raw sessions of the news site loaded%n", exported.size());
+            for (int warm = 0; warm < 2; warm++) {
+                for (Question q : questions) {
+                    String sql = duckSql(q);
+                    if (sql == null) {
+                        continue;
+                    }
+                    long start = System.nanoTime();
+                    try (Statement s = c.createStatement(); ResultSet rs = s.executeQuery(sql)) {
+                        while (rs.next()) {
+                            rs.getObject(1);
+                        }
+                    }
+                    if (warm == 1) {
+                        times.computeIfAbsent(q.answer(), k -> new ArrayList<>()).add((System.nanoTime() - start) / 1e6);
+                    }
+                }
+            }
+        }
+        Map<String, double[]> result = new LinkedHashMap<>();
+        times.forEach((k, v) -> result.put(k, percentiles(v)));
+        return result;
+    }
+
+    static String duckSql(Question q) {
+        String where = "local_day BETWEEN DATE '" + exportedLast.minusDays(q.days() - 1L) + "' AND DATE '" + exportedLast
+                + "'";
+        for (String part : q.filter().split("&")) {
+            if (!part.isEmpty()) {
+                String[] kv = part.split("=");
+                where += " AND " + kv[0] + " = '" + kv[1] + "'";
+            }
+        }
+        String sums = "count(*), sum(CASE WHEN bounce THEN 1 ELSE 0 END), sum(pageviews), sum(revenue_micros), "
+                + "sum(engaged_ms), sum(impressions), sum(viewable_impressions), sum(clicks)";
+        return switch (q.answer()) {
+            case "overview" -> "SELECT " + sums + " FROM sessions WHERE " + where;
+            case "density" -> "SELECT entry_ads, " + sums + " FROM sessions WHERE " + where + " GROUP BY entry_ads";
+            case "depth" -> "SELECT least(pageviews, 11), " + sums + " FROM sessions WHERE " + where + " GROUP BY 1";
+            case "geography" -> "SELECT country, " + sums + " FROM sessions WHERE " + where + " GROUP BY country";
+            case "pages" -> "SELECT entry_path, " + sums + " FROM sessions WHERE " + where
+                    + " GROUP BY entry_path ORDER BY 2 DESC LIMIT 20";
+            case "timeseries" -> "SELECT local_day" + (q.days() <= 7 ? ", local_hour" : "") + ", " + sums
+                    + " FROM sessions WHERE " + where + " GROUP BY ALL";
+            default -> null; // engagement is page-level; the raw sessions table has no pages
+        };
+    }
+
+    static double[] percentiles(List<Double> values) {
+        double[] v = values.stream().mapToDouble(Double::doubleValue).toArray();
+        Arrays.sort(v);
+        return new double[]{v[v.length / 2], v[(int) Math.ceil(0.95 * v.length) - 1]};
+    }
+
+    static String fmt(double[] p) {
+        return String.format("%.1f / %.1f", p[0], p[1]);
+    }
+
 }
