@@ -47,6 +47,26 @@ public class Accounts {
         return users.findAll();
     }
 
+    /** Disables the account: it can no longer log in, and its API tokens stop working. */
+    @Transactional
+    public void disable(String username) {
+        UserAccount user = users.findByUsername(username)
+                .orElseThrow(() -> new com.example.foldline.system.NotFoundException("no user '" + username + "'"));
+        users.setEnabled(user.id(), false);
+    }
+
+    @Transactional
+    public void changePassword(String username, String current, String replacement) {
+        UserAccount user = users.findByUsername(username).orElseThrow();
+        if (current == null || !encoder.matches(current, user.passwordHash())) {
+            throw new BadRequestException("currentPassword", "does not match");
+        }
+        if (replacement == null || replacement.length() < 10) {
+            throw new BadRequestException("newPassword", "must have at least 10 characters");
+        }
+        users.updatePassword(user.id(), encoder.encode(replacement));
+    }
+
     public boolean isEmpty() {
         return users.count() == 0;
     }

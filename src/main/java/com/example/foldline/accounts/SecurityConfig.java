@@ -6,8 +6,7 @@ import org.springframework.context.annotation.Configuration;
 import org.springframework.http.HttpMethod;
 import org.springframework.security.config.Customizer;
 import org.springframework.security.config.annotation.web.builders.HttpSecurity;
-import org.springframework.security.core.authority.AuthorityUtils;
-import org.springframework.security.core.userdetails.User;
+import org.springframework.security.authentication.dao.DaoAuthenticationProvider;
 import org.springframework.security.core.userdetails.UserDetailsService;
 import org.springframework.security.core.userdetails.UsernameNotFoundException;
 import org.springframework.security.crypto.factory.PasswordEncoderFactories;
@@ -31,15 +30,19 @@ class SecurityConfig {
 
     @Bean
     @ConditionalOnWebApplication(type = ConditionalOnWebApplication.Type.SERVLET)
-    SecurityFilterChain securityFilterChain(HttpSecurity http, AccountProperties properties) throws Exception {
+    SecurityFilterChain securityFilterChain(HttpSecurity http, AccountProperties properties, SiteAccess access,
+                                            ApiTokens tokens, UserDetailsService users,
+                                            ThrottledAuthenticationProvider passwords) throws Exception {
         http.authorizeHttpRequests(auth -> auth
                         .requestMatchers(PUBLIC).permitAll()
                         .requestMatchers("/api/v1/sites/*/events").permitAll()
                         .requestMatchers(HttpMethod.POST, "/api/v1/sites").hasRole("ADMIN")
-                        .requestMatchers(HttpMethod.PUT, "/api/v1/sites/*").hasRole("ADMIN")
-                        .requestMatchers("/api/v1/sites/*/ingest-keys", "/api/v1/sites/*/ingest-keys/**").hasRole("ADMIN")
+                        .requestMatchers("/api/v1/sites/{siteId}", "/api/v1/sites/{siteId}/**")
+                        .access(new SiteAuthorization(access))
                         .requestMatchers("/api/v1/admin/**").hasRole("ADMIN")
                         .anyRequest().authenticated())
+                .authenticationProvider(passwords)
+                .addFilterBefore(new BearerTokenFilter(tokens, users), BasicAuthenticationFilter.class)
                 .formLogin(Customizer.withDefaults())
                 .logout(Customizer.withDefaults())
                 .csrf(csrf -> csrf.requireCsrfProtectionMatcher(cookieAuthenticatedWrite())
@@ -62,12 +65,21 @@ class SecurityConfig {
             String method = request.getMethod();
             boolean safe = "GET".equals(method) || "HEAD".equals(method) || "OPTIONS".equals(method)
                     || "TRACE".equals(method);
-            if (safe || request.getHeader("Authorization") != null || request.getRequestedSessionId() == null) {
+            boolean session = request.getRequestedSessionId() != null || request.getSession(false) != null;
+            if (safe || request.getHeader("Authorization") != null || !session) {
                 return false;
             }
             String path = request.getRequestURI().substring(request.getContextPath().length());
             return !path.matches("/api/v1/sites/[^/]+/events");
         };
+    }
+
+    @Bean
+    ThrottledAuthenticationProvider passwordAuthentication(UserDetailsService users, PasswordEncoder encoder,
+                                                           LoginThrottle throttle) {
+        DaoAuthenticationProvider dao = new DaoAuthenticationProvider(users);
+        dao.setPasswordEncoder(encoder);
+        return new ThrottledAuthenticationProvider(dao, throttle);
     }
 
     @Bean
@@ -77,11 +89,7 @@ class SecurityConfig {
 
     @Bean
     UserDetailsService userDetailsService(UserRepository users) {
-        return username -> users.findByUsername(username)
-                .map(u -> User.withUsername(u.username()).password(u.passwordHash()).disabled(!u.enabled())
-                        .authorities(AuthorityUtils.createAuthorityList(
-                                u.globalAdmin() ? new String[]{"ROLE_USER", "ROLE_ADMIN"} : new String[]{"ROLE_USER"}))
-                        .build())
+        return username -> users.findByUsername(username).map(AccountPrincipal::of)
                 .orElseThrow(() -> new UsernameNotFoundException("no such user"));
     }
 }

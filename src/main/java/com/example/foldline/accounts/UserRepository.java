@@ -49,6 +49,11 @@ class UserRepository {
         return jdbc.sql("SELECT count(*) FROM app_user").query(Long.class).single();
     }
 
+    void setEnabled(long id, boolean enabled) {
+        jdbc.sql("UPDATE app_user SET enabled = :enabled WHERE id = :id").param("enabled", enabled).param("id", id)
+                .update();
+    }
+
     void updatePassword(long id, String hash) {
         jdbc.sql("UPDATE app_user SET password_hash = :hash WHERE id = :id").param("hash", hash).param("id", id).update();
     }

@@ -11,11 +11,14 @@ import org.slf4j.LoggerFactory;
 import org.springframework.stereotype.Service;
 
 import com.example.foldline.accounts.Accounts;
+import com.example.foldline.accounts.SiteAccess;
+import com.example.foldline.accounts.SiteRole;
 import com.example.foldline.sessions.BulkSessions;
 import com.example.foldline.sessions.SessionInput;
 import com.example.foldline.sites.Site;
 import com.example.foldline.sites.SiteSettings;
 import com.example.foldline.sites.Sites;
+import com.example.foldline.views.Views;
 
 /** Creates the invented publisher's sites and fills them with simulated history (docs/demo.md). */
 @Service
@@ -29,12 +32,16 @@ public class DemoPublisher {
     private final Accounts accounts;
     private final BulkSessions bulk;
     private final Clock clock;
+    private final SiteAccess access;
+    private final Views views;
 
-    DemoPublisher(Sites sites, Accounts accounts, BulkSessions bulk, Clock clock) {
+    DemoPublisher(Sites sites, Accounts accounts, BulkSessions bulk, Clock clock, SiteAccess access, Views views) {
         this.sites = sites;
         this.accounts = accounts;
         this.bulk = bulk;
         this.clock = clock;
+        this.access = access;
+        this.views = views;
     }
 
     /** What was created. */
@@ -44,15 +51,14 @@ public class DemoPublisher {
     /** Creates the three sites (and the demo login) and simulates {@code days} days of traffic. */
     public Seeded seed(long seed, int days, double scale) {
         long started = System.nanoTime();
-        if (accounts.find(DEMO_USER).isEmpty()) {
-            accounts.create(DEMO_USER, DEMO_PASSWORD, false);
-        }
+        long demoUser = accounts.find(DEMO_USER).orElseGet(() -> accounts.create(DEMO_USER, DEMO_PASSWORD, false)).id();
         List<Site> created = new ArrayList<>();
         long total = 0;
         for (DemoScenario.SiteSpec spec : DemoScenario.SITES) {
             Site site = sites.create(new SiteSettings(spec.name(), spec.domain(), spec.timezone(), spec.currency(),
                     null, null, null));
             sites.createIngestKey(site.id(), "demo tag");
+            access.grantUser(site.id(), DEMO_USER, SiteRole.EDITOR);
             created.add(site);
             LocalDate last = LocalDate.now(clock.withZone(ZoneId.of(spec.timezone()))).minusDays(1);
             DemoSimulator simulator = new DemoSimulator(spec, seed, scale, last);
@@ -60,6 +66,13 @@ public class DemoPublisher {
                 List<SessionInput> sessions = simulator.day(day);
                 total += bulk.store(site, sessions);
             }
+        }
+        for (Site site : created) {
+            views.saveAs(site.id(), demoUser, "Phone readers from search: ad density", "density",
+                    "device=phone&source=search", true);
+            views.saveAs(site.id(), demoUser, "Desktop readers: ad density, last 90 days", "density",
+                    "device=desktop&range=90d", true);
+            views.saveAs(site.id(), demoUser, "Revenue by country", "geography", "sort=sessionRpm", true);
         }
         long millis = (System.nanoTime() - started) / 1_000_000;
         log.info("Demo publisher seeded: {} sites, {} sessions in {} ms (log in as '{}' / '{}')", created.size(), total,

@@ -1,9 +1,11 @@
 package com.example.foldline.sites;
 
 import java.util.List;
+import java.util.Set;
 
 import org.springframework.http.HttpStatus;
 import org.springframework.http.ResponseEntity;
+import org.springframework.security.core.Authentication;
 import org.springframework.web.bind.annotation.DeleteMapping;
 import org.springframework.web.bind.annotation.GetMapping;
 import org.springframework.web.bind.annotation.PathVariable;
@@ -12,6 +14,8 @@ import org.springframework.web.bind.annotation.PutMapping;
 import org.springframework.web.bind.annotation.RequestBody;
 import org.springframework.web.bind.annotation.RequestMapping;
 import org.springframework.web.bind.annotation.RestController;
+
+import com.example.foldline.accounts.SiteAccess;
 
 import io.swagger.v3.oas.annotations.Operation;
 import io.swagger.v3.oas.annotations.tags.Tag;
@@ -22,9 +26,11 @@ import io.swagger.v3.oas.annotations.tags.Tag;
 class SiteController {
 
     private final Sites sites;
+    private final SiteAccess access;
 
-    SiteController(Sites sites) {
+    SiteController(Sites sites, SiteAccess access) {
         this.sites = sites;
+        this.access = access;
     }
 
     @PostMapping
@@ -34,8 +40,10 @@ class SiteController {
     }
 
     @GetMapping
-    List<Site> list() {
-        return sites.all();
+    @Operation(summary = "The sites the caller can see")
+    List<Site> list(Authentication auth) {
+        Set<Long> visible = access.visibleSiteIds(auth);
+        return sites.all().stream().filter(s -> visible == null || visible.contains(s.id())).toList();
     }
 
     @GetMapping("/{siteId}")

@@ -135,8 +135,8 @@ class DemoGroundTruthTests {
     }
 
     @Test
-    void seedingIsFastAndDeterministic() {
-        assertThat(seeded.sessions()).isGreaterThan(100_000);
-        assertThat(seeded.millis()).isLessThan(60_000);
+    void theDemoHasTheVolumeItsDocumentationStates() {
+        // docs/demo.md: about 2,250 sessions a day at scale 1, over 60 days here
+        assertThat(seeded.sessions()).isBetween(110_000L, 160_000L);
     }
 }
