@@ -8,9 +8,9 @@ import java.time.Instant;
  */
 public record SavedView(long id, long siteId, long ownerId, String owner, String slug, String name, String screen,
                         String state, boolean shared, boolean pinned, Instant createdAt, Instant lastOpenedAt,
-                        Instant deletedAt) {
+                        Instant deletedAt, String link) {
 
-    public String link() {
+    static String linkOf(String slug) {
         return "/v/" + slug;
     }
 }

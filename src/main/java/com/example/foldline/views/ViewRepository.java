@@ -69,7 +69,8 @@ class ViewRepository {
     private static SavedView map(ResultSet rs, int row) throws SQLException {
         return new SavedView(rs.getLong(1), rs.getLong(2), rs.getLong(3), rs.getString(4), rs.getString(5),
                 rs.getString(6), rs.getString(7), rs.getString(8), rs.getBoolean(9), rs.getBoolean(10),
-                ts(rs.getTimestamp(11)), ts(rs.getTimestamp(12)), ts(rs.getTimestamp(13)));
+                ts(rs.getTimestamp(11)), ts(rs.getTimestamp(12)), ts(rs.getTimestamp(13)),
+                SavedView.linkOf(rs.getString(5)));
     }
 
     private static Instant ts(Timestamp t) {
