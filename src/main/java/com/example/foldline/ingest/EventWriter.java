@@ -99,13 +99,34 @@ class EventWriter {
         return stored(counts);
     }
 
+    /**
+     * An impression inserts; a repeat of the same id only raises it (not viewable to viewable, not clicked to clicked,
+     * more revenue), as the tag re-sends a slot that became viewable after the page was first hidden. A repeat that
+     * raises nothing is a duplicate.
+     */
     int impressions(Site site, long batch, List<Event.Impression> rows, Instant receivedAt) {
         Timestamp received = Timestamp.from(receivedAt);
         int[][] counts = jdbc.batchUpdate("""
-                        INSERT INTO impression (site_id, id, pageview_id, slot, size, viewable, clicked, revenue_micros,
-                                                cpm_micros, received_at, ingest_batch)
-                        VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)
-                        ON CONFLICT DO NOTHING""", rows, rows.size(), (ps, e) -> {
+                        MERGE INTO impression t
+                        USING (VALUES (CAST(? AS BIGINT), CAST(? AS VARCHAR(64)), CAST(? AS VARCHAR(64)),
+                                       CAST(? AS VARCHAR(64)), CAST(? AS VARCHAR(11)), CAST(? AS BOOLEAN),
+                                       CAST(? AS BOOLEAN), CAST(? AS BIGINT), CAST(? AS BIGINT),
+                                       CAST(? AS TIMESTAMP WITH TIME ZONE), CAST(? AS BIGINT)))
+                              AS s (site_id, id, pageview_id, slot, size, viewable, clicked, revenue_micros, cpm_micros,
+                                    received_at, ingest_batch)
+                        ON t.site_id = s.site_id AND t.id = s.id
+                        WHEN MATCHED AND ((s.viewable AND NOT t.viewable) OR (s.clicked AND NOT t.clicked)
+                                          OR s.revenue_micros > t.revenue_micros) THEN
+                            UPDATE SET viewable = (t.viewable OR s.viewable), clicked = (t.clicked OR s.clicked),
+                                       revenue_micros = GREATEST(t.revenue_micros, s.revenue_micros),
+                                       cpm_micros = COALESCE(s.cpm_micros, t.cpm_micros),
+                                       received_at = s.received_at, ingest_batch = s.ingest_batch
+                        WHEN NOT MATCHED THEN
+                            INSERT (site_id, id, pageview_id, slot, size, viewable, clicked, revenue_micros, cpm_micros,
+                                    received_at, ingest_batch)
+                            VALUES (s.site_id, s.id, s.pageview_id, s.slot, s.size, s.viewable, s.clicked,
+                                    s.revenue_micros, s.cpm_micros, s.received_at, s.ingest_batch)""",
+                rows, rows.size(), (ps, e) -> {
                     ps.setLong(1, site.id());
                     ps.setString(2, e.id());
                     ps.setString(3, e.pageview());

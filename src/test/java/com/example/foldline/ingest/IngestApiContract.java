@@ -167,6 +167,21 @@ abstract class IngestApiContract {
     }
 
     @Test
+    void aRepeatedImpressionCanOnlyBeRaised() {
+        String imp = "{\"type\":\"impression\",\"id\":\"r1\",\"pageview\":\"p\",\"viewable\":%s,\"clicked\":%s,"
+                + "\"revenueMicros\":%d}";
+        assertThat(post(imp.formatted(false, false, 100))).hasStatusOk().bodyJson().extractingPath("$.accepted").isEqualTo(1);
+        // the slot became viewable after the page was first hidden: the tag sends it again
+        assertThat(post(imp.formatted(true, false, 100))).hasStatusOk().bodyJson().extractingPath("$.accepted").isEqualTo(1);
+        assertThat(post(imp.formatted(false, false, 50))).hasStatusOk().bodyJson().extractingPath("$.duplicates")
+                .isEqualTo(1);
+        var row = jdbc.sql("SELECT viewable, clicked, revenue_micros FROM impression WHERE site_id = :s AND id = 'r1'")
+                .param("s", site.site().id()).query().singleRow();
+        assertThat(row).containsEntry("viewable", true).containsEntry("clicked", false);
+        assertThat(((Number) row.get("revenue_micros")).longValue()).isEqualTo(100);
+    }
+
+    @Test
     void missingWrongOrRevokedKeyOrUnknownSiteIs401WithoutSayingWhich() {
         String body = pv("k1");
         assertThat(mvc.post().uri("/api/v1/sites/{id}/events", site.site().id()).contentType(NDJSON).content(body))
