@@ -37,7 +37,7 @@ final class SiteAuthorization implements AuthorizationManager<RequestAuthorizati
 
     static SiteRole needed(String method, String path) {
         boolean read = method.equals("GET") || method.equals("HEAD") || method.equals("OPTIONS");
-        boolean adminArea = path.contains("/ingest-keys") || path.contains("/members")
+        boolean adminArea = path.contains("/ingest-keys") || path.contains("/members") || path.contains("/visitors/")
                 || path.matches("/api/v1/sites/[^/]+/?");
         if (adminArea && !(read && path.matches("/api/v1/sites/[^/]+/?"))) {
             return SiteRole.ADMIN;

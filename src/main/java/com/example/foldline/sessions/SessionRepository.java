@@ -206,6 +206,11 @@ class SessionRepository {
                 });
     }
 
+    List<SessionFact> visitorSessions(long siteId, String visitor) {
+        return jdbc.query("SELECT " + SESSION_COLUMNS + " FROM session_fact WHERE site_id = ? AND visitor = ?",
+                SessionRepository::session, siteId, visitor);
+    }
+
     /** Open sessions whose last pageview is before {@code before}. */
     List<SessionFact> openSessionsEndingBefore(long siteId, Instant before, int limit) {
         return jdbc.query("SELECT " + SESSION_COLUMNS + """

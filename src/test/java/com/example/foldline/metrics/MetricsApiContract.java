@@ -256,6 +256,34 @@ abstract class MetricsApiContract {
     }
 
     @Test
+    void deletingAVisitorRemovesTheirEventsAndTheirShareOfEveryNumber() {
+        // visitor A had one session: 2 pageviews, revenue 3500 (see the fixture)
+        assertThat(mvc.delete().uri("/api/v1/sites/" + site.id() + "/visitors/A").with(httpBasic("admin", "admin-secret")))
+                .hasStatusOk().bodyJson().extractingPath("$.pageviews").isEqualTo(2);
+        JsonNode o = get("overview", "").get("current");
+        assertThat(o.get("sessions").asLong()).isEqualTo(3);
+        assertThat(o.get("pageviews").asLong()).isEqualTo(3);
+        assertThat(o.get("revenueMicros").asLong()).isEqualTo(4000);
+        long left = jdbc.sql("SELECT count(*) FROM impression WHERE site_id = :s AND pageview_id IN ('a1', 'a2')")
+                .param("s", site.id()).query(Long.class).single();
+        assertThat(left).isZero();
+        assertRollupsEqualSessions();
+    }
+
+    @Test
+    void retentionDeletesOldEventsButKeepsTheAggregates() {
+        sites.update(site.id(), new SiteSettings(site.name(), site.domain(), "Europe/Lisbon", "EUR", null, null, 30));
+        assertThat(mvc.post().uri("/api/v1/admin/retention/run").with(httpBasic("admin", "admin-secret"))).hasStatusOk();
+        long raw = jdbc.sql("SELECT count(*) FROM pageview WHERE site_id = :s").param("s", site.id())
+                .query(Long.class).single();
+        long facts = jdbc.sql("SELECT count(*) FROM session_fact WHERE site_id = :s").param("s", site.id())
+                .query(Long.class).single();
+        assertThat(raw).isZero();
+        assertThat(facts).isZero();
+        assertThat(get("overview", "").get("current").get("sessions").asLong()).isEqualTo(4);
+    }
+
+    @Test
     void badFilterInputIs400NamingTheParameter() {
         assertBad("?shoeSize=42", "shoeSize");
         assertBad("?device=fridge", "device");
