@@ -62,9 +62,14 @@ public class DemoPublisher {
             created.add(site);
             LocalDate last = LocalDate.now(clock.withZone(ZoneId.of(spec.timezone()))).minusDays(1);
             DemoSimulator simulator = new DemoSimulator(spec, seed, scale, last);
+            List<SessionInput> week = new ArrayList<>();
             for (LocalDate day = last.minusDays(days - 1L); !day.isAfter(last); day = day.plusDays(1)) {
-                List<SessionInput> sessions = simulator.day(day);
-                total += bulk.store(site, sessions);
+                week.addAll(simulator.day(day));
+                // a week per transaction: fewer commits, each one a full write of the embedded database's pages
+                if (day.getDayOfWeek() == java.time.DayOfWeek.SUNDAY || day.equals(last)) {
+                    total += bulk.store(site, week);
+                    week = new ArrayList<>();
+                }
             }
         }
         for (Site site : created) {
