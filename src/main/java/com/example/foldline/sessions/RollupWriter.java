@@ -86,35 +86,35 @@ class RollupWriter {
 
     /** Measures, then key: the order both the UPDATE and the INSERT of rollup_session use. */
     private static void sessionRow(java.sql.PreparedStatement ps, long siteId,
-                                   Map.Entry<Contributions.SessionCell, Contributions.SessionMeasures> e)
+                       Map.Entry<Contributions.SessionCell, Contributions.SessionMeasures> e)
             throws java.sql.SQLException {
-                    Contributions.SessionMeasures m = e.getValue();
-                    Contributions.SessionCell k = e.getKey();
-                    ps.setLong(1, m.sessions);
-                    ps.setLong(2, m.bounces);
-                    ps.setLong(3, m.pageviews);
-                    ps.setDouble(4, m.pageviewsSq);
-                    ps.setLong(5, m.engagedMs);
-                    ps.setDouble(6, m.engagedSq);
-                    ps.setLong(7, m.revenueMicros);
-                    ps.setDouble(8, m.revenueSq);
-                    ps.setLong(9, m.entryAdsSum);
-                    ps.setLong(10, m.impressions);
-                    ps.setLong(11, m.viewable);
-                    ps.setLong(12, m.clicks);
-                    ps.setLong(13, siteId);
-                    ps.setInt(14, k.cuboid());
-                    ps.setDate(15, Date.valueOf(k.day()));
-                    ps.setInt(16, k.hour());
-                    ps.setString(17, k.device());
-                    ps.setString(18, k.source());
-                    ps.setString(19, k.browser());
-                    ps.setString(20, k.variant());
-                    ps.setString(21, k.country());
-                    ps.setString(22, k.region());
-                    ps.setInt(23, k.entryAds());
-                    ps.setInt(24, k.pages());
-                    ps.setString(25, k.entryPath());
+        Contributions.SessionMeasures m = e.getValue();
+        Contributions.SessionCell k = e.getKey();
+        ps.setLong(1, m.sessions);
+        ps.setLong(2, m.bounces);
+        ps.setLong(3, m.pageviews);
+        ps.setDouble(4, m.pageviewsSq);
+        ps.setLong(5, m.engagedMs);
+        ps.setDouble(6, m.engagedSq);
+        ps.setLong(7, m.revenueMicros);
+        ps.setDouble(8, m.revenueSq);
+        ps.setLong(9, m.entryAdsSum);
+        ps.setLong(10, m.impressions);
+        ps.setLong(11, m.viewable);
+        ps.setLong(12, m.clicks);
+        ps.setLong(13, siteId);
+        ps.setInt(14, k.cuboid());
+        ps.setDate(15, Date.valueOf(k.day()));
+        ps.setInt(16, k.hour());
+        ps.setString(17, k.device());
+        ps.setString(18, k.source());
+        ps.setString(19, k.browser());
+        ps.setString(20, k.variant());
+        ps.setString(21, k.country());
+        ps.setString(22, k.region());
+        ps.setInt(23, k.entryAds());
+        ps.setInt(24, k.pages());
+        ps.setString(25, k.entryPath());
     }
 
     private static void pageRow(java.sql.PreparedStatement ps, long siteId,
