@@ -1,0 +1,48 @@
+// Building DOM without HTML strings: every text, including labels from event data, goes in as a text node.
+
+/**
+ * h('button', {class: 'x', onclick: fn, 'aria-pressed': 'true'}, 'Label', child…)
+ * `text` sets textContent; `value`, `checked`, `disabled`, `hidden` are set as properties; on… adds listeners.
+ */
+export function h(tag, props, ...children) {
+  const el = document.createElement(tag);
+  for (const [k, v] of Object.entries(props ?? {})) {
+    if (v === undefined || v === null || v === false) continue;
+    if (k === 'text') el.textContent = v;
+    else if (k === 'class') el.className = v;
+    else if (k.startsWith('on')) el.addEventListener(k.slice(2), v);
+    else if (k === 'value' || k === 'checked' || k === 'disabled' || k === 'hidden' || k === 'selected') el[k] = v;
+    else el.setAttribute(k, v === true ? '' : String(v));
+  }
+  append(el, children);
+  return el;
+}
+
+export function append(el, children) {
+  for (const c of children.flat(Infinity)) {
+    if (c === null || c === undefined || c === false) continue;
+    el.append(c instanceof Node ? c : document.createTextNode(String(c)));
+  }
+  return el;
+}
+
+let ids = 0;
+export const uid = (prefix) => `${prefix}-${++ids}`;
+
+/** Saves a text or data URL as a file through a temporary link. */
+export function download(name, content, type = 'text/csv;charset=utf-8') {
+  const url = content.startsWith?.('data:') ? content : URL.createObjectURL(new Blob([content], { type }));
+  const a = h('a', { href: url, download: name, hidden: true });
+  document.body.append(a);
+  a.click();
+  a.remove();
+  if (!url.startsWith('data:')) setTimeout(() => URL.revokeObjectURL(url), 10_000);
+}
+
+/** A <select> with options [{value, label}] and a visible label. */
+export function select(label, name, options, value, onchange) {
+  const id = uid(name);
+  return h('label', { class: 'field', for: id }, h('span', { text: label }),
+    h('select', { id, name, onchange },
+      options.map((o) => h('option', { value: o.value, text: o.label, selected: o.value === value }))));
+}

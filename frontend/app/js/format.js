@@ -1,0 +1,81 @@
+// Numbers for people: the site's currency and the reader's locale (Intl). Pure: no DOM.
+
+const MINUS = '\u2212';
+
+/**
+ * Formatters for one locale and currency. Money arguments are decimal amounts of the currency (not micros).
+ * @param {string} locale BCP 47 tag, e.g. navigator.language
+ * @param {string} currency ISO 4217 code of the site
+ */
+export function makeFormat(locale, currency = 'EUR') {
+  const cache = new Map();
+  const nf = (opts) => {
+    const key = JSON.stringify(opts);
+    if (!cache.has(key)) cache.set(key, new Intl.NumberFormat(locale, opts));
+    return cache.get(key);
+  };
+  const finite = (v) => typeof v === 'number' && Number.isFinite(v);
+  const dash = '–';
+  const fmt = {
+    locale,
+    currency,
+    count: (n) => (finite(n) ? nf({ maximumFractionDigits: 0 }).format(n) : dash),
+    decimal: (n, digits = 2) => (finite(n)
+      ? nf({ minimumFractionDigits: digits, maximumFractionDigits: digits }).format(n) : dash),
+    /** A proportion 0..1 as a percentage. */
+    percent: (p, digits = 1) => (finite(p)
+      ? nf({ style: 'percent', minimumFractionDigits: digits, maximumFractionDigits: digits }).format(p) : dash),
+    /** Money with the currency's usual decimals, or three significant digits below its smallest unit. */
+    money: (v) => {
+      if (!finite(v)) return dash;
+      const usual = nf({ style: 'currency', currency });
+      const small = v !== 0 && Math.abs(v) < 10 ** -usual.resolvedOptions().maximumFractionDigits;
+      return (small ? nf({ style: 'currency', currency, maximumSignificantDigits: 3 }) : usual).format(v);
+    },
+    /** A difference of proportions in percentage points, signed. */
+    points: (d, digits = 1) => {
+      if (!finite(d)) return dash;
+      const abs = nf({ minimumFractionDigits: digits, maximumFractionDigits: digits }).format(Math.abs(d) * 100);
+      return (d < 0 ? MINUS : '+') + abs + ' pts';
+    },
+    signed: (n, digits = 0) => {
+      if (!finite(n)) return dash;
+      const abs = nf({ minimumFractionDigits: digits, maximumFractionDigits: digits }).format(Math.abs(n));
+      return (n < 0 ? MINUS : '+') + abs;
+    },
+    /** A ratio against a reference as "1.08×". */
+    times: (r) => (finite(r) ? nf({ minimumFractionDigits: 2, maximumFractionDigits: 2 }).format(r) + '×' : dash),
+    /** Milliseconds as "42 s" or "3 min 05 s". */
+    duration: (ms) => {
+      if (!finite(ms)) return dash;
+      const s = Math.round(ms / 1000);
+      if (s < 60) return nf({ maximumFractionDigits: 0 }).format(s) + ' s';
+      const m = Math.floor(s / 60);
+      return nf({ maximumFractionDigits: 0 }).format(m) + ' min ' + String(s % 60).padStart(2, '0') + ' s';
+    },
+    /** An ISO date (YYYY-MM-DD) as a short local date, read as a calendar day (no time zone shift). */
+    date: (iso, opts = { day: 'numeric', month: 'short', year: 'numeric' }) => {
+      if (typeof iso !== 'string' || iso.length < 10) return dash;
+      return new Intl.DateTimeFormat(locale, { ...opts, timeZone: 'UTC' }).format(new Date(iso.slice(0, 10) + 'T00:00:00Z'));
+    },
+    /** A local date-time of the API (YYYY-MM-DDTHH:mm) as "3 Mar, 14:00". */
+    hour: (iso) => new Intl.DateTimeFormat(locale, { day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit', timeZone: 'UTC' })
+      .format(new Date(iso + ':00Z')),
+    range: (from, to) => fmt.date(from) + ' – ' + fmt.date(to),
+    /** A p-value in words of the trade: "p < 0.001" or "p = 0.032". */
+    pValue: (p) => (!finite(p) ? 'p not available' : p < 0.001 ? 'p < 0.001'
+      : 'p = ' + nf({ maximumSignificantDigits: 2 }).format(p)),
+  };
+  return fmt;
+}
+
+/** The country name in the reader's language, with its code ("Portugal (PT)"); the code when unknown. */
+export function countryName(locale, code) {
+  if (!code) return '–';
+  try {
+    const name = new Intl.DisplayNames([locale], { type: 'region' }).of(code);
+    return name && name !== code ? `${name} (${code})` : code;
+  } catch {
+    return code;
+  }
+}
