@@ -1,11 +1,7 @@
 // The JSON API client: session cookie, CSRF header on writes, RFC 9457 problem details turned into sentences.
 
-const FIELD_WORDS = {
-  from: 'The start date', to: 'The end date', device: 'Device', source: 'Source', country: 'Country',
-  region: 'Region', browser: 'Browser', variant: 'Variant', compare: 'Compare', grain: 'The time grain',
-  metric: 'The metric', date: 'The date', text: 'The note', q: 'The search text', minSessions: 'Minimum sessions',
-  limit: 'The number of rows', sort: 'The sort order', order: 'The order', by: 'The grouping',
-};
+const FIELD_WORDS = { from: 'The start date', to: 'The end date', date: 'The date', text: 'The note',
+  q: 'The search text', minSessions: 'The minimum of sessions' };
 
 /** An API failure with a message for people; `login` when the user has to sign in again. */
 export class ApiError extends Error {
@@ -36,10 +32,11 @@ function csrfToken() {
   return c ? decodeURIComponent(c.slice(11)) : null;
 }
 
-/** @param progress {start(), done()} called around every request (the loading bar) */
+/** progress.start() and done() frame every request (the loading bar). */
 export function createApi(progress) {
   async function call(method, path, { query, body, signal } = {}) {
-    const headers = { Accept: 'application/json' };
+    // X-Requested-With: an expired session then gets a plain 401, not the browser's basic-auth dialog
+    const headers = { Accept: 'application/json', 'X-Requested-With': 'XMLHttpRequest' };
     if (method !== 'GET') {
       const token = csrfToken();
       if (token) headers['X-XSRF-TOKEN'] = token;

@@ -1,5 +1,4 @@
-// Chart.js (global `Chart` from the webjar) with our defaults, colour-blind-safe palette (Okabe & Ito 2008) and
-// three small drawing plugins: interval bars, shaded bands with guide lines, and a white background for PNGs.
+// Chart.js (global `Chart`, from the webjar) with our defaults, the Okabe–Ito palette and small drawing plugins.
 
 export const COLORS = {
   blue: '#0072B2', orange: '#E69F00', sky: '#56B4E9', green: '#009E73', vermillion: '#D55E00',
@@ -36,19 +35,18 @@ const intervals = {
       ctx.save();
       ctx.strokeStyle = ds.intervalColor ?? COLORS.ink;
       ctx.lineWidth = 1.5;
+      // (value, across) points: the value axis is x for horizontal bars, y otherwise
+      const line = (v1, c1, v2, c2) => (horizontal ? (ctx.moveTo(v1, c1), ctx.lineTo(v2, c2))
+        : (ctx.moveTo(c1, v1), ctx.lineTo(c2, v2)));
       meta.data.forEach((el, j) => {
         const iv = ds.intervals[j];
         if (!iv || iv.lower === null || iv.upper === null) return;
-        const a = scale.getPixelForValue(iv.lower);
-        const b = scale.getPixelForValue(iv.upper);
+        const [a, b] = [iv.lower, iv.upper].map((v) => scale.getPixelForValue(v));
+        const c = horizontal ? el.y : el.x;
         ctx.beginPath();
-        if (horizontal) {
-          ctx.moveTo(a, el.y); ctx.lineTo(b, el.y);
-          ctx.moveTo(a, el.y - 4); ctx.lineTo(a, el.y + 4); ctx.moveTo(b, el.y - 4); ctx.lineTo(b, el.y + 4);
-        } else {
-          ctx.moveTo(el.x, a); ctx.lineTo(el.x, b);
-          ctx.moveTo(el.x - 4, a); ctx.lineTo(el.x + 4, a); ctx.moveTo(el.x - 4, b); ctx.lineTo(el.x + 4, b);
-        }
+        line(a, c, b, c);
+        line(a, c - 4, a, c + 4);
+        line(b, c - 4, b, c + 4);
         ctx.stroke();
       });
       ctx.restore();
@@ -56,10 +54,7 @@ const intervals = {
   },
 };
 
-/**
- * options.plugins.flGuides: {bands: [{from, to, color, label}], lines: [{x | y, color, label, dash}]}, in the
- * values of the x (bands, x lines) or y scale. Labels are drawn on the canvas as text.
- */
+/** options.plugins.flGuides: {bands: [{from, to, color}], lines: [{x | y, color, label, dash}]} in scale values. */
 const guides = {
   id: 'flGuides',
   beforeDatasetsDraw(chart, _args, opts) {
@@ -90,8 +85,7 @@ const guides = {
         ctx.moveTo(px, area.top); ctx.lineTo(px, area.bottom); ctx.stroke();
         if (l.label) {
           const w = ctx.measureText(l.label).width;
-          const tx = px + 4 + w > area.right ? px - 4 - w : px + 4;
-          ctx.fillText(l.label, tx, area.top + 12 + 14 * (row++ % 3));
+          label(ctx, l.label, px + 4 + w > area.right ? px - 4 - w : px + 4, area.top + 12 + 15 * (row++ % 3), ctx.fillStyle);
         }
       } else {
         const scale = scales[l.axis ?? (chart.options.indexAxis === 'y' ? 'x' : 'y')];
@@ -102,8 +96,8 @@ const guides = {
         if (l.label) {
           const w = ctx.measureText(l.label).width;
           if (chart.options.indexAxis === 'y') {
-            ctx.fillText(l.label, p + 4 + w > area.right ? p - 4 - w : p + 4, area.bottom - 6 - 14 * (row++ % 3));
-          } else ctx.fillText(l.label, area.right - w - 2, p - 5);
+            label(ctx, l.label, p + 4 + w > area.right ? p - 4 - w : p + 4, area.bottom - 6 - 15 * (row++ % 3), ctx.fillStyle);
+          } else label(ctx, l.label, area.right - w - 2, p - 5, ctx.fillStyle);
         }
       }
     }
@@ -111,17 +105,18 @@ const guides = {
   },
 };
 
+/** Canvas text on a white box, readable over bars. */
+function label(ctx, text, x, y, color) {
+  const w = ctx.measureText(text).width;
+  ctx.fillStyle = 'rgba(255,255,255,0.85)';
+  ctx.fillRect(x - 2, y - 11, w + 4, 14);
+  ctx.fillStyle = color;
+  ctx.fillText(text, x, y);
+}
+
 let firstDrawn = false;
 /** Marks the first chart drawn after navigation in the Performance timeline (docs/benchmarks.md). */
-const timing = {
-  id: 'flTiming',
-  afterRender() {
-    if (!firstDrawn) {
-      firstDrawn = true;
-      performance.mark('foldline:first-chart');
-    }
-  },
-};
+const timing = { id: 'flTiming', afterRender: () => firstDrawn || (firstDrawn = performance.mark('foldline:first-chart')) };
 
 let registered = false;
 function register() {
@@ -139,7 +134,6 @@ function register() {
   C.defaults.plugins.tooltip.backgroundColor = 'rgba(34,48,58,0.92)';
 }
 
-/** A new chart on the canvas (any previous chart on it is destroyed first). */
 export function makeChart(canvas, config) {
   if (!window.Chart) throw new Error('the chart library did not load');
   register();
@@ -147,30 +141,28 @@ export function makeChart(canvas, config) {
   return new window.Chart(canvas, config);
 }
 
-/** A small trend line drawn straight on a canvas (no axes); null values leave gaps. */
-export function sparkline(canvas, values, color = COLORS.blue) {
-  const ratio = window.devicePixelRatio || 1;
-  const w = canvas.clientWidth || 120;
-  const hgt = canvas.clientHeight || 28;
-  canvas.width = w * ratio;
-  canvas.height = hgt * ratio;
-  const ctx = canvas.getContext('2d');
-  ctx.scale(ratio, ratio);
-  const finite = values.filter((v) => Number.isFinite(v));
+/** A small trend line without axes (tiles and site cards). */
+export function sparkline(canvas, values) {
   canvas.dataset.points = String(values.length);
-  if (finite.length < 2) return;
-  const min = Math.min(...finite);
-  const span = Math.max(...finite) - min || 1;
-  ctx.strokeStyle = color;
-  ctx.lineWidth = 1.5;
-  ctx.beginPath();
-  let pen = false;
-  values.forEach((v, i) => {
-    if (!Number.isFinite(v)) { pen = false; return; }
-    const px = 2 + (i / Math.max(1, values.length - 1)) * (w - 4);
-    const py = hgt - 3 - ((v - min) / span) * (hgt - 6);
-    if (pen) ctx.lineTo(px, py); else ctx.moveTo(px, py);
-    pen = true;
-  });
-  ctx.stroke();
+  return makeChart(canvas, { type: 'line', data: { labels: values.map(String), datasets: [{ data: values,
+    borderColor: COLORS.blue, borderWidth: 1.5, pointRadius: 0 }] }, options: { events: [], layout: { padding: 2 },
+    scales: { x: { display: false }, y: { display: false } }, plugins: { legend: { display: false } } } });
+}
+
+/** Bars on the left axis and a line on the right one, e.g. a value and how many readers stand behind it. */
+export function barsAndLine({ labels, xTitle, bar, line, extra = [], lines = [] }) {
+  const axis = (a, position) => ({ position, beginAtZero: true, title: { display: true, text: a.label },
+    ticks: { callback: a.format }, grid: { drawOnChartArea: position === 'left' } });
+  return {
+    data: { labels, datasets: [
+      { type: 'bar', label: bar.label, data: bar.data, backgroundColor: bar.color },
+      { type: 'line', label: line.label, data: line.data, borderColor: line.color, backgroundColor: line.color,
+        pointRadius: 3, yAxisID: 'y1' },
+      ...extra] },
+    options: {
+      scales: { x: { title: { display: true, text: xTitle } }, y: axis(bar, 'left'), y1: axis(line, 'right') },
+      plugins: { flGuides: { lines }, tooltip: { callbacks: {
+        label: (c) => `${c.dataset.label}: ${(c.dataset.yAxisID === 'y1' ? line : bar).format(c.parsed.y)}` } } },
+    },
+  };
 }

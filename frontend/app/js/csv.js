@@ -1,4 +1,4 @@
-// CSV (RFC 4180) of a chart's data: the API's numbers unformatted, so a spreadsheet gets exact values. Pure.
+// CSV (RFC 4180) of a chart's data with the API's numbers unformatted. Pure.
 
 function cell(v) {
   if (v === null || v === undefined || (typeof v === 'number' && !Number.isFinite(v))) return '';
@@ -8,10 +8,7 @@ function cell(v) {
   return /[",\r\n]/.test(s) ? '"' + s.replaceAll('"', '""') + '"' : s;
 }
 
-/**
- * @param {{key: string, label: string, csv?: (row) => any}[]} columns
- * @param {object[]} rows
- */
+/** columns: [{key, label, csv?(row)}] */
 export function toCsv(columns, rows) {
   const lines = [columns.map((c) => cell(c.label)).join(',')];
   for (const r of rows) lines.push(columns.map((c) => cell(c.csv ? c.csv(r) : r[c.key])).join(','));

@@ -1,9 +1,6 @@
 // Building DOM without HTML strings: every text, including labels from event data, goes in as a text node.
 
-/**
- * h('button', {class: 'x', onclick: fn, 'aria-pressed': 'true'}, 'Label', child…)
- * `text` sets textContent; `value`, `checked`, `disabled`, `hidden` are set as properties; on… adds listeners.
- */
+/** h('button', {class, text, onclick, 'aria-pressed': 'true'}, child…): `text` sets textContent, on… listens. */
 export function h(tag, props, ...children) {
   const el = document.createElement(tag);
   for (const [k, v] of Object.entries(props ?? {})) {
@@ -39,10 +36,15 @@ export function download(name, content, type = 'text/csv;charset=utf-8') {
   if (!url.startsWith('data:')) setTimeout(() => URL.revokeObjectURL(url), 10_000);
 }
 
-/** A <select> with options [{value, label}] and a visible label. */
-export function select(label, name, options, value, onchange) {
-  const id = uid(name);
-  return h('label', { class: 'field', for: id }, h('span', { text: label }),
-    h('select', { id, name, onchange },
-      options.map((o) => h('option', { value: o.value, text: o.label, selected: o.value === value }))));
+/** A control with its visible label above it. */
+export const field = (label, control, extra = '') => h('label', { class: 'field' + extra, for: control.id },
+  h('span', { text: label }), control);
+
+/** An <input> with an id, labelled by field(). */
+export const input = (props) => h('input', { id: uid(props.name), autocomplete: 'off', ...props });
+
+/** A labelled <select> with options [{value, label}] or strings. */
+export function select(label, name, options, value, onchange, id = uid(name)) {
+  return field(label, h('select', { id, name, onchange }, options.map((o) => (typeof o === 'string'
+    ? { value: o, label: o } : o)).map((o) => h('option', { value: o.value, text: o.label, selected: o.value === value }))));
 }

@@ -2,11 +2,7 @@
 
 const MINUS = '\u2212';
 
-/**
- * Formatters for one locale and currency. Money arguments are decimal amounts of the currency (not micros).
- * @param {string} locale BCP 47 tag, e.g. navigator.language
- * @param {string} currency ISO 4217 code of the site
- */
+/** Formatters for a locale (BCP 47) and the site's currency (ISO 4217); money in currency units, not micros. */
 export function makeFormat(locale, currency = 'EUR') {
   const cache = new Map();
   const nf = (opts) => {
@@ -22,18 +18,18 @@ export function makeFormat(locale, currency = 'EUR') {
     count: (n) => (finite(n) ? nf({ maximumFractionDigits: 0 }).format(n) : dash),
     decimal: (n, digits = 2) => (finite(n)
       ? nf({ minimumFractionDigits: digits, maximumFractionDigits: digits }).format(n) : dash),
-    /** A proportion 0..1 as a percentage. */
     percent: (p, digits = 1) => (finite(p)
       ? nf({ style: 'percent', minimumFractionDigits: digits, maximumFractionDigits: digits }).format(p) : dash),
-    /** Money with the currency's usual decimals, or three significant digits below its smallest unit. */
+    /** Money with the currency's usual decimals; small amounts (under 0.10 €, 1 ¥) keep 3 significant digits. */
     money: (v) => {
       if (!finite(v)) return dash;
       const usual = nf({ style: 'currency', currency });
-      const small = v !== 0 && Math.abs(v) < 10 ** -usual.resolvedOptions().maximumFractionDigits;
-      return (small ? nf({ style: 'currency', currency, maximumSignificantDigits: 3 }) : usual).format(v);
+      const d = usual.resolvedOptions().maximumFractionDigits;
+      return (v !== 0 && Math.abs(v) < (d ? 10 ** (1 - d) : 1)
+        ? nf({ style: 'currency', currency, maximumSignificantDigits: 3 }) : usual).format(v);
     },
     /** A difference of proportions in percentage points, signed. */
-    points: (d, digits = 1) => {
+    points: (d, digits = Math.abs(d) < 0.001 && d !== 0 ? 2 : 1) => {
       if (!finite(d)) return dash;
       const abs = nf({ minimumFractionDigits: digits, maximumFractionDigits: digits }).format(Math.abs(d) * 100);
       return (d < 0 ? MINUS : '+') + abs + ' pts';
@@ -43,7 +39,6 @@ export function makeFormat(locale, currency = 'EUR') {
       const abs = nf({ minimumFractionDigits: digits, maximumFractionDigits: digits }).format(Math.abs(n));
       return (n < 0 ? MINUS : '+') + abs;
     },
-    /** A ratio against a reference as "1.08×". */
     times: (r) => (finite(r) ? nf({ minimumFractionDigits: 2, maximumFractionDigits: 2 }).format(r) + '×' : dash),
     /** Milliseconds as "42 s" or "3 min 05 s". */
     duration: (ms) => {
@@ -62,7 +57,6 @@ export function makeFormat(locale, currency = 'EUR') {
     hour: (iso) => new Intl.DateTimeFormat(locale, { day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit', timeZone: 'UTC' })
       .format(new Date(iso + ':00Z')),
     range: (from, to) => fmt.date(from) + ' – ' + fmt.date(to),
-    /** A p-value in words of the trade: "p < 0.001" or "p = 0.032". */
     pValue: (p) => (!finite(p) ? 'p not available' : p < 0.001 ? 'p < 0.001'
       : 'p = ' + nf({ maximumSignificantDigits: 2 }).format(p)),
   };

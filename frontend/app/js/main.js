@@ -28,7 +28,6 @@ let inFlight = 0;
 const progress = {
   start() { inFlight++; bar.hidden = false; },
   done() { inFlight = Math.max(0, inFlight - 1); if (!inFlight) { bar.hidden = true; bar.removeAttribute('value'); } },
-  /** A determinate bar for work of known size; returns a function to call after each step. */
   steps(total) {
     let done = 0;
     bar.max = total;
@@ -75,7 +74,8 @@ function drawNav(state) {
       : link(target, s.title, { 'aria-current': s.id === state.screen ? 'page' : null, id: 'nav-' + s.id }));
   })));
   picker.replaceChildren(h('option', { value: '', text: sites.length ? 'Choose a site…' : 'No sites' }),
-    sites.map((s) => h('option', { value: String(s.id), text: s.name, selected: s.id === state.site })));
+    ...sites.map((s) => h('option', { value: String(s.id), text: s.name })));
+  picker.value = state.site ? String(state.site) : '';
 }
 
 async function route(state) {
@@ -109,10 +109,9 @@ async function route(state) {
   };
   try {
     if (state.screen !== 'sites' && !site) {
-      main.append(h('h1', { id: 'screen-title', tabindex: '-1', text: 'Choose a site' }),
-        h('p', { class: 'empty', text: state.site ? `There is no site ${state.site} among the sites you can see.`
-          : 'This screen shows one site. Choose it above or from the list of sites.' }),
-        link(withChanges(state, { screen: 'sites', site: null }), 'Go to the list of sites'));
+      main.append(h('h1', { id: 'screen-title', tabindex: '-1', text: 'Choose a site' }), h('p', { class: 'empty' },
+        state.site ? `There is no site ${state.site} among the sites you can see. ` : 'This screen shows one site. ',
+        link(withChanges(state, { screen: 'sites', site: null }), 'Go to the list of sites')));
     } else {
       await screen.render(ctx);
     }

@@ -1,14 +1,10 @@
-// A chart panel: title, explanation, the chart, its data as a table (toggle), CSV and PNG export, and the
-// loading, empty and error states.
+// A chart panel: title, caption, chart or data table, CSV and PNG export, loading, empty and error states.
 
 import { h, uid, download } from './dom.js';
 import { makeChart } from './charts.js';
 import { toCsv, fileName } from './csv.js';
 
-/**
- * @param ctx     the screen context (state, navigation)
- * @param opts    {id, title, caption, columns: [{key, label, format?(v, row), csv?(row), num?}], tools?: Node[]}
- */
+/** columns: [{key, label, format?(v, row), csv?(row), text?}]: the first heads the rows, others are numbers. */
 export function panel(ctx, { id, title, caption, columns, tools = [] }) {
   const titleId = uid('title');
   const bodyId = uid('body');
@@ -24,9 +20,9 @@ export function panel(ctx, { id, title, caption, columns, tools = [] }) {
   const toggle = h('button', { type: 'button', class: 'tool', id: 'toggle-' + id, 'aria-controls': bodyId,
     onclick: () => { showTable(!tableShown); ctx.setTable(id, tableShown); } });
   const csv = h('button', { type: 'button', class: 'tool', id: 'csv-' + id, text: 'CSV',
-    'aria-label': 'Download the data of "' + title + '" as CSV', onclick: () => download(name('csv'), toCsv(columns, rows)) });
+    'aria-label': 'CSV of ' + title, onclick: () => download(name('csv'), toCsv(columns, rows)) });
   const png = h('button', { type: 'button', class: 'tool', id: 'png-' + id, text: 'PNG',
-    'aria-label': 'Download the chart "' + title + '" as a PNG image',
+    'aria-label': 'PNG image of ' + title,
     onclick: () => chart && download(name('png'), chart.toBase64Image('image/png', 1)) });
   const el = h('section', { class: 'panel', id: 'panel-' + id, 'aria-labelledby': titleId, 'data-state': 'loading' },
     h('header', { class: 'panel-head' },
@@ -46,6 +42,7 @@ export function panel(ctx, { id, title, caption, columns, tools = [] }) {
     toggle.setAttribute('aria-pressed', String(on));
     chartBox.hidden = on;
     tableBox.hidden = !on;
+    png.disabled = on || el.dataset.state !== 'ready';
   }
 
   function setState(state, message = '', alert = false) {
@@ -55,28 +52,26 @@ export function panel(ctx, { id, title, caption, columns, tools = [] }) {
     status.setAttribute('role', alert ? 'alert' : 'status');
     status.hidden = !message || (Array.isArray(message) && !message.length);
     for (const b of [csv, png, toggle]) b.disabled = state !== 'ready';
+    png.disabled ||= tableShown;
   }
+
+  const num = (c, i) => (i && !c.text ? 'num' : null);
 
   function fillTable() {
     table.replaceChildren(
       h('caption', { class: 'visually-hidden', text: title }),
-      h('thead', null, h('tr', null, columns.map((c) => h('th', { scope: 'col', class: c.num ? 'num' : null, text: c.label })))),
+      h('thead', null, h('tr', null, columns.map((c, i) => h('th', { scope: 'col', class: num(c, i), text: c.label })))),
       h('tbody', null, rows.map((r) => h('tr', null, columns.map((c, i) => {
         const v = c.format ? c.format(r[c.key], r) : r[c.key];
-        return h(i === 0 ? 'th' : 'td', { scope: i === 0 ? 'row' : null, class: c.num ? 'num' : null, text: v ?? '–' });
+        return h(i ? 'td' : 'th', { scope: i ? null : 'row', class: num(c, i), text: v ?? '–' });
       })))));
   }
 
   showTable(tableShown);
-  setState('loading', h('span', { class: 'spinner', 'aria-hidden': 'true' }), false);
-  status.append('Loading…');
+  setState('loading', [h('span', { class: 'spinner', 'aria-hidden': 'true' }), 'Loading…']);
 
   return {
     el,
-    get chart() { return chart; },
-    loading() {
-      setState('loading', [h('span', { class: 'spinner', 'aria-hidden': 'true' }), 'Loading…']);
-    },
     error(err) {
       chart?.destroy();
       chart = null;
@@ -94,7 +89,6 @@ export function panel(ctx, { id, title, caption, columns, tools = [] }) {
       chartBox.hidden = true;
       tableBox.hidden = true;
     },
-    /** Shows rows in the table and the chart; `note` is an extra sentence above the chart (e.g. thin data). */
     show(newRows, config, { label, note } = {}) {
       rows = newRows;
       fillTable();

@@ -7,7 +7,7 @@ import { previousRange } from './range.js';
 const FILTER_WORDS = { device: 'Device', source: 'Source', country: 'Country', region: 'Region', browser: 'Browser',
   variant: 'Variant' };
 
-/** Heading, introduction and an (initially empty) scope line; returns the scope line element. */
+/** Heading and introduction; returns the (empty) scope line. */
 export function heading(ctx, title, intro) {
   const scope = h('p', { class: 'scope', id: 'scope' });
   ctx.main.append(h('div', { class: 'screen-head' },
@@ -26,21 +26,32 @@ export function describeScope(ctx, scope, previous) {
 }
 
 export function showScope(ctx, el, scope, previous) {
-  el.replaceChildren(h('span', { class: 'scope-text', text: describeScope(ctx, scope, previous) }),
-    scope.answeredFrom ? h('span', { class: 'answered', text: ' · read from ' + scope.answeredFrom }) : null);
+  el.replaceChildren(h('span', { class: 'scope-text', text: describeScope(ctx, scope, previous) }));
+  if (scope.answeredFrom) el.title = 'Read from ' + scope.answeredFrom;
 }
 
-/** GET a metrics answer for the current segment; opts.range ({from, to}) asks for other dates. */
+/** GET a metrics answer for the segment; opts.range ({from, to}) for other dates. */
 export function metrics(ctx, name, extras = {}, opts = {}) {
   return ctx.api.get(`/api/v1/sites/${ctx.site.id}/metrics/${name}`,
     apiQuery({ ...ctx.state, ...(opts.range ?? {}) }, extras, opts), ctx.signal);
 }
 
-/** The same answer for the previous period when the segment bar asks for a comparison, else null. */
+/** The previous period's answer when comparing, else null. */
 export function previous(ctx, name, extras = {}) {
   if (!ctx.state.compare) return Promise.resolve(null);
   return metrics(ctx, name, extras, { compare: false, range: previousRange(ctx.state.from, ctx.state.to) })
     .catch((e) => (e.name === 'AbortError' ? Promise.reject(e) : null));
+}
+
+/** [answer, previous period's answer or null]; null after showing a failure in the panels. */
+export async function load(ctx, name, extras, panels, previousExtras = extras) {
+  try {
+    return await Promise.all([metrics(ctx, name, extras), previous(ctx, name, previousExtras)]);
+  } catch (e) {
+    if (e.name === 'AbortError') throw e;
+    for (const p of panels) p.error(e);
+    return null;
+  }
 }
 
 /** An empty-state sentence: what is missing and what to try. */

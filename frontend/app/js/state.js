@@ -1,5 +1,4 @@
-// The whole state of a screen, kept in the page's query string so that a link reproduces the view.
-// parseState and toSearch are inverse on canonical input (see test/state.test.js). Pure: no DOM.
+// A screen's whole state in the query string, so a link reproduces the view. Pure: no DOM.
 
 import { isIsoDate } from './range.js';
 import { METRIC_NAMES } from './metrics.js';
@@ -12,6 +11,7 @@ export const SOURCES = ['search', 'social', 'direct', 'referral', 'email', 'paid
 /** Screen-specific parameters: default and accepted values (a RegExp for free values). */
 const EXTRAS = {
   health: { metric: ['sessions', METRIC_NAMES], grain: ['day', ['day', 'hour']] },
+  density: { model: ['logistic', ['logistic', 'linear']] },
   pages: {
     sort: ['sessions', ['sessions', 'bounceRate', 'sessionRpm']], order: ['desc', ['desc', 'asc']],
     q: ['', /^.{0,200}$/s], minSessions: ['', /^[1-9]\d{0,6}$/], limit: ['20', ['10', '20', '50', '100']],

@@ -1,102 +1,85 @@
-// Reads the density answer's `fit` and `recommendation` (statistics core: SegmentedFit, SegmentedLogisticFit,
-// NoFit, AdCapRecommender.Recommendation) defensively, and puts the break test's verdict into words. Pure.
+// Reads the knee fits and the ad-cap advice of the metrics answers (records FitSummary, KneeReport and CapAdvice,
+// docs/metrics.md). Pure: no DOM.
 
-/** A finite number from a JSON value (Jackson may write NaN as a string), else null. */
+/** A finite number from a JSON value, else null. */
 export function num(v) {
   const n = typeof v === 'string' && v.trim() !== '' ? Number(v) : v;
   return typeof n === 'number' && Number.isFinite(n) ? n : null;
 }
 
 const text = (v) => (typeof v === 'string' && v.trim() ? v.trim() : null);
-const interval = (o) => (o && typeof o === 'object'
-  ? { estimate: num(o.estimate), lower: num(o.lower), upper: num(o.upper) } : null);
+const noKnee = (why) => sentence(/^no[ t]/i.test(why) ? why : 'no knee: ' + why);
+export const sentence = (s) => (s ? s[0].toUpperCase() + s.slice(1) + (/[.!?]$/.test(s) ? '' : '.') : '');
 
-/**
- * The fit in one shape: {model, reason, logistic, breakpoints, slopes, pValue, predict(x)}, or {message} when the
- * server explains why there is none, or null when the answer has no fit at all.
- */
+/** A FitSummary as {model, reason, breakpoints, slopes, pValue, breakFound, test, verdict, curve} or {notice}. */
 export function readFit(raw) {
   if (!raw || typeof raw !== 'object') return null;
-  let f = raw;
-  for (const k of ['fit', 'chosen', 'result', 'segmented']) {
-    if (raw[k] && typeof raw[k] === 'object' && !Array.isArray(raw[k])) { f = raw[k]; break; }
-  }
-  const model = text(raw.model) ?? text(raw.chosenModel) ?? text(raw.modelName) ?? text(f.model);
-  const reason = text(raw.reason) ?? text(raw.modelReason) ?? text(raw.choiceReason) ?? text(f.selectionReason);
-  if (!Array.isArray(f.slopes) || f.slopes.length === 0) {
-    return { message: text(f.message) ?? text(raw.message) ?? text(raw.notice) ?? 'the server gave no fit', model };
-  }
-  const logistic = /logis|logit|binomial|glm/i.test(model ?? '') || 'deviance' in f;
-  const breakpoints = (f.breakpoints ?? []).map((b) => ({
-    estimate: num(b.estimate), lower: num(b.lower), upper: num(b.upper),
-    slopeChange: num(b.slopeChange) ?? 0,
-  })).filter((b) => b.estimate !== null);
-  const slopes = f.slopes.map(interval);
-  const intercept = num(f.intercept) ?? 0;
-  const davies = f.davies ?? raw.davies ?? raw.breakTest ?? {};
-  const pValue = num(davies.pValue) ?? num(raw.pValue) ?? num(f.pValue);
-  const eta = (x) => breakpoints.reduce((y, b) => (x > b.estimate ? y + b.slopeChange * (x - b.estimate) : y),
-    intercept + (slopes[0].estimate ?? 0) * x);
+  const curve = (Array.isArray(raw.curve) ? raw.curve : []).map((p) => ({ x: num(p.x), y: num(p.y) }))
+    .filter((p) => p.x !== null && p.y !== null);
+  if (!curve.length) return { notice: text(raw.notice) ?? 'the server gave no fit' };
+  const test = raw.breakTest ?? {};
   return {
-    model: model ?? (logistic ? 'segmented logistic regression' : 'segmented linear regression'),
-    reason, logistic, breakpoints, slopes, pValue,
-    predict: (x) => (logistic ? 1 / (1 + Math.exp(-eta(x))) : eta(x)),
+    model: text(raw.model),
+    reason: text(raw.reason),
+    breakpoints: (raw.breakpoints ?? []).map((b) => ({ estimate: num(b.estimate), lower: num(b.lower),
+      upper: num(b.upper) })).filter((b) => b.estimate !== null),
+    slopes: (raw.slopes ?? []).map((s) => ({ estimate: num(s.estimate), lower: num(s.lower), upper: num(s.upper),
+      unit: text(s.unit) })),
+    pValue: num(test.pValue),
+    breakFound: test.breakFound === true,
+    test: text(test.method),
+    verdict: text(raw.verdict),
+    curve,
   };
 }
 
-const ads = (fmt, x) => (Math.abs(x - Math.round(x)) < 0.05 ? fmt.count(Math.round(x)) : fmt.decimal(x, 1));
-const pts = (fmt, perAd) => {
-  const v = Math.abs(perAd * 100);
-  return (v >= 2 ? fmt.count(v) : fmt.decimal(v, 1)) + (v === 1 ? ' point' : ' points');
-};
-const move = (fmt, perAd) => (perAd >= 0 ? 'rises' : 'falls') + ' about ' + pts(fmt, perAd);
-
-/**
- * The verdict on bounce against ads on the entry page, in words, e.g. "Bounce stays flat up to 5 ads, then rises
- * about 7 points per extra ad".
- * @param fit  the result of readFit
- * @param xMin smallest and largest ad count observed
- */
-export function densityVerdict(fit, fmt, xMin, xMax, alpha = 0.05) {
+/** The knee in words: the server's verdict with the break test's p-value, or why there is none. */
+export function densityVerdict(fit, fmt) {
   if (!fit) return 'The server has not estimated a knee for this answer.';
-  if (fit.message) return 'No knee could be estimated: ' + fit.message + '.';
-  const test = fit.pValue === null ? '' : ` (break test ${fmt.pValue(fit.pValue)})`;
+  if (fit.notice) return noKnee(fit.notice);
   const k = fit.breakpoints[0];
-  const per = (a, b) => (b > a ? (fit.predict(b) - fit.predict(a)) / (b - a) : 0);
-  if (!k || (fit.pValue !== null && fit.pValue >= alpha) || !(k.estimate > xMin && k.estimate < xMax)) {
-    return `No clear knee: bounce ${move(fmt, per(xMin, xMax))} per extra ad across ${ads(fmt, xMin)} to `
-      + `${ads(fmt, xMax)} ads${test}.`;
-  }
-  const before = fit.logistic ? per(xMin, k.estimate) : fit.slopes[0].estimate;
-  const after = fit.logistic ? per(k.estimate, xMax) : fit.slopes[1]?.estimate ?? per(k.estimate, xMax);
-  const s0 = fit.slopes[0];
-  const flat = Math.abs(before) < 0.005
-    || (!fit.logistic && s0.lower !== null && s0.upper !== null && s0.lower <= 0 && s0.upper >= 0);
-  const range = k.lower !== null && k.upper !== null
-    ? `; knee between ${ads(fmt, k.lower)} and ${ads(fmt, k.upper)} ads` : '';
-  const head = flat ? `Bounce stays flat up to ${ads(fmt, k.estimate)} ads, then ${move(fmt, after)} per extra ad`
-    : `Bounce ${move(fmt, before)} per extra ad up to ${ads(fmt, k.estimate)} ads, then ${move(fmt, after)
-    } per extra ad`;
-  return head + (test || range ? ' (' + [test.slice(2, -1), range.slice(2)].filter(Boolean).join('; ') + ')' : '')
-    + '.';
+  const words = fit.verdict ?? (fit.breakFound && k ? `the slope changes at ${fmt.decimal(k.estimate, 1)} ads`
+    : 'no clear knee');
+  return sentence(words + (fit.pValue === null || words.includes('p =') ? '' : ` (break test ${fmt.pValue(fit.pValue)})`));
 }
 
-/** The recommendation in one shape, or null: {cap, label, probability, gain, current, summary, caution}. */
-export function readRecommendation(raw) {
+/**
+ * The knee of a KneeReport: Kneedle's when found, else the segmented breakpoint when the break test found one;
+ * `x` null with the reason otherwise. `words(x)` says what the knee means for this curve.
+ */
+export function kneeOf(report, notice, words) {
+  let k = { x: null, reason: notice ?? 'the server gave no knee estimate' };
+  if (report && typeof report === 'object') {
+    const seg = readFit(report.segmented);
+    if (report.kneedle?.found) k = { x: num(report.kneedle.knee), method: 'Kneedle' };
+    else if (seg?.breakFound && seg.breakpoints.length) k = { x: seg.breakpoints[0].estimate, method: 'segmented fit' };
+    else k.reason = text(report.kneedle?.reason) ?? seg?.notice ?? 'no knee found';
+  }
+  k.text = k.x === null ? noKnee(k.reason) : `Knee (${k.method}): ${words(k.x)}.`;
+  return k;
+}
+
+/**
+ * CapAdvice as {cap, probability, gain, current, summary, caution, pair, caps}, money in currency units. Its …Micros
+ * RPM fields have carried currency units (AdCapRecommender's session RPM), so the unit is read against `siteRpm`,
+ * the answer's own session RPM in currency units: a value a thousand times larger is taken as micros.
+ */
+export function readAdvice(raw, siteRpm) {
   if (!raw || typeof raw !== 'object') return null;
-  const caps = Array.isArray(raw.caps) ? raw.caps : Array.isArray(raw.entryCaps) ? raw.entryCaps : [];
-  const pair = raw.recommended && typeof raw.recommended === 'object' ? raw.recommended : null;
-  let cap = num(raw.recommendedCap) ?? num(raw.cap) ?? (pair ? num(pair.entryAdCount) : null);
-  if (raw.recommendedCap && typeof raw.recommendedCap === 'object') cap = num(raw.recommendedCap.value);
-  const label = pair && num(pair.laterAdCount) !== null
-    ? `${pair.entryAdCount} ads on the entry page, ${pair.laterAdCount} on later pages` : null;
-  const probability = num(pair?.probabilityBest) ?? num(raw.probabilityBest) ?? num(raw.probability)
-    ?? num(caps.find((c) => num(c.adCount) === cap)?.probabilityBest);
+  const probe = num(raw.currentSessionRpmMicros) ?? Math.max(0, ...(raw.caps ?? []).map((c) => num(c.sessionRpmMicros) ?? 0));
+  const unit = siteRpm > 0 && probe / siteRpm > 1000 ? 1e6 : 1;
+  const m = (v) => (num(v) === null ? null : num(v) / unit);
   return {
-    cap, label, probability,
-    gain: interval(raw.expectedGainRpm ?? raw.expectedGain),
-    current: num(raw.currentSessionRpm),
+    cap: num(raw.cap),
+    probability: num(raw.probabilityBest),
+    gain: { estimate: m(raw.expectedGainMicros), lower: m(raw.expectedGainLower), upper: m(raw.expectedGainUpper) },
+    current: m(raw.currentSessionRpmMicros),
     summary: text(raw.summary),
     caution: text(raw.caution),
+    pair: num(raw.entryCap) === null ? null : { entry: num(raw.entryCap), later: num(raw.laterCap),
+      probability: num(raw.pairProbabilityBest), summary: text(raw.pairSummary) },
+    caps: (Array.isArray(raw.caps) ? raw.caps : []).map((c) => ({ ads: num(c.ads), enough: c.status !== 'not_enough_data',
+      note: text(c.note), pages: num(c.pages), sessionRpm: m(c.sessionRpmMicros), lower: m(c.lower), upper: m(c.upper),
+      probabilityBest: num(c.probabilityBest) })),
   };
 }

@@ -1,7 +1,9 @@
 // Engagement: what a pageview earns by how long it was read.
 
-import { heading, showScope, metrics, previous, emptyMessage } from '../screen.js';
-import { COLORS, alpha } from '../charts.js';
+import { h } from '../dom.js';
+import { heading, showScope, load, emptyMessage } from '../screen.js';
+import { COLORS, alpha, barsAndLine } from '../charts.js';
+import { kneeOf, sentence } from '../verdict.js';
 
 export const id = 'engagement';
 export const title = 'Engagement';
@@ -16,21 +18,16 @@ export async function render(ctx) {
       + 'long. Line: how many pageviews fall in each band.',
     columns: [
       { key: 'label', label: 'Engaged time' },
-      { key: 'pageviews', label: 'Pageviews', num: true, format: fmt.count },
-      { key: 'revenuePerPageview', label: `Revenue per pageview (${fmt.currency})`, num: true, format: fmt.money },
-      { key: 'pageRpm', label: `Page RPM (${fmt.currency})`, num: true, format: fmt.money },
+      { key: 'pageviews', label: 'Pageviews', format: fmt.count },
+      { key: 'revenuePerPageview', label: `Revenue per pageview (${fmt.currency})`, format: fmt.money },
+      { key: 'pageRpm', label: `Page RPM (${fmt.currency})`, format: fmt.money },
     ],
   });
-  ctx.main.append(panel.el);
-  let answer;
-  let before;
-  try {
-    [answer, before] = await Promise.all([metrics(ctx, 'engagement'), previous(ctx, 'engagement')]);
-  } catch (e) {
-    if (e.name === 'AbortError') throw e;
-    panel.error(e);
-    return;
-  }
+  const knee = h('p', { class: 'knee', id: 'engagement-knee' });
+  ctx.main.append(knee, panel.el);
+  const loaded = await load(ctx, 'engagement', {}, [panel]);
+  if (!loaded) return;
+  const [answer, before] = loaded;
   showScope(ctx, scope, answer.scope, before?.scope);
   const points = answer.points;
   if (!points.length) {
@@ -43,29 +40,23 @@ export async function render(ctx) {
     notes.push(`${fmt.count(answer.unmeasuredPageviews)} of ${fmt.count(all)} pageviews `
       + `(${fmt.percent(answer.unmeasuredPageviews / all)}) have no measured engaged time and are left out.`);
   }
-  if (answer.notice) notes.push(answer.notice[0].toUpperCase() + answer.notice.slice(1) + '.');
-  const datasets = [
-    { type: 'bar', label: 'Page RPM', data: points.map((p) => p.pageRpm), backgroundColor: alpha(COLORS.green, 0.8),
-      yAxisID: 'y' },
-    { type: 'line', label: 'Pageviews', data: points.map((p) => p.pageviews), borderColor: COLORS.purple, pointRadius: 3,
-      yAxisID: 'y1' },
-  ];
+  if (answer.notice) notes.push(sentence(answer.notice));
+  const k = kneeOf(answer.fit, answer.notice, (x) => `past about ${fmt.duration(x * 1000)} of engaged time, a pageview `
+    + 'earns little more');
+  knee.textContent = k.text;
+  knee.classList.toggle('found', k.x !== null);
+  const kneeAt = k.x !== null ? points.findIndex((p) => k.x * 1000 >= p.lowerMs && (p.upperMs === undefined
+    || p.upperMs === null || k.x * 1000 < p.upperMs)) : -1;
+  const extra = [];
   if (before) {
     const prev = new Map(before.points.map((p) => [p.bucket, p.pageRpm]));
-    datasets.push({ type: 'line', label: 'Page RPM, previous period', borderColor: COLORS.muted, borderDash: [6, 4],
-      pointRadius: 2, data: points.map((p) => prev.get(p.bucket) ?? null), yAxisID: 'y' });
+    extra.push({ type: 'line', label: 'Page RPM, previous period', borderColor: COLORS.muted, borderDash: [6, 4],
+      pointRadius: 2, data: points.map((p) => prev.get(p.bucket) ?? null) });
   }
-  panel.show(points, {
-    data: { labels: points.map((p) => p.label), datasets },
-    options: {
-      scales: {
-        x: { title: { display: true, text: 'Engaged time on the page' } },
-        y: { title: { display: true, text: 'Page RPM' }, beginAtZero: true, ticks: { callback: (v) => fmt.money(v) } },
-        y1: { position: 'right', grid: { drawOnChartArea: false }, beginAtZero: true,
-          title: { display: true, text: 'Pageviews' }, ticks: { callback: (v) => fmt.count(v) } },
-      },
-      plugins: { tooltip: { callbacks: { label: (c) => (c.dataset.yAxisID === 'y1' ? `${fmt.count(c.parsed.y)} pageviews`
-        : `${c.dataset.label}: ${fmt.money(c.parsed.y)}`) } } },
-    },
-  }, { note: notes.join(' '), label: `Page RPM for ${points.length} engaged-time bands` });
+  panel.show(points, barsAndLine({
+    labels: points.map((p) => p.label), xTitle: 'Engaged time on the page', extra,
+    lines: kneeAt >= 0 ? [{ x: kneeAt, color: COLORS.vermillion, label: `knee ≈ ${fmt.duration(k.x * 1000)}` }] : [],
+    bar: { label: 'Page RPM', data: points.map((p) => p.pageRpm), color: alpha(COLORS.green, 0.8), format: fmt.money },
+    line: { label: 'Pageviews', data: points.map((p) => p.pageviews), color: COLORS.purple, format: fmt.count },
+  }), { note: notes.join(' '), label: `Page RPM for ${points.length} engaged-time bands` });
 }

@@ -1,7 +1,7 @@
 // Entry pages: the paths readers arrive on, with their bounce, value and ads, so editors see who loses readers.
 
-import { h, uid, select } from '../dom.js';
-import { heading, showScope, metrics, previous, emptyMessage } from '../screen.js';
+import { h, select, field, input } from '../dom.js';
+import { heading, showScope, load, emptyMessage } from '../screen.js';
 import { COLORS, alpha } from '../charts.js';
 
 export const id = 'pages';
@@ -24,36 +24,30 @@ export async function render(ctx) {
   const views = h('div', { class: 'chips', role: 'group', 'aria-label': 'Which pages' }, VIEWS.map((v) => h('button', {
     type: 'button', class: 'chip', text: v.label, 'aria-pressed': String(v.sort === sort && v.order === order),
     onclick: () => ctx.navigate({ extras: { sort: v.sort, order: v.order } }) })));
-  const qId = uid('q');
-  const minId = uid('min');
-  const qInput = h('input', { type: 'search', id: qId, name: 'q', value: q, maxlength: '200', placeholder: 'part of a path' });
-  const minInput = h('input', { type: 'number', id: minId, name: 'minSessions', min: '1', value: minSessions,
-    placeholder: sort === 'sessions' ? '1' : '30', inputmode: 'numeric' });
+  const qInput = input({ type: 'search', name: 'q', value: q, maxlength: '200', placeholder: 'part of a path' });
+  const minInput = input({ type: 'number', name: 'minSessions', min: '1', value: minSessions,
+    placeholder: sort === 'sessions' ? '1' : '30' });
   const search = h('form', { class: 'inline-form', role: 'search', onsubmit: (e) => {
     e.preventDefault();
     const min = minInput.value.trim();
     ctx.navigate({ extras: { q: qInput.value.trim(), minSessions: /^[1-9]\d{0,6}$/.test(min) ? min : '' } });
   } },
-  h('label', { class: 'field', for: qId }, h('span', { text: 'Path contains' }), qInput),
-  h('label', { class: 'field', for: minId }, h('span', { text: 'At least sessions' }), minInput),
-  select('Rows', 'limit', ['10', '20', '50', '100'].map((v) => ({ value: v, label: v })), limit,
+  field('Path contains', qInput), field('At least sessions', minInput),
+  select('Rows', 'limit', ['10', '20', '50', '100'], limit,
     (e) => ctx.navigate({ extras: { limit: e.target.value } })),
   h('button', { type: 'submit', text: 'Search' }));
   const pct = (v) => fmt.percent(v);
   const columns = [
     { key: 'path', label: 'Entry path' },
-    { key: 'sessions', label: 'Sessions', num: true, format: fmt.count },
-    { key: 'bounceRate', label: 'Bounce rate', num: true, format: pct },
-    { key: 'bounceLower', label: 'Bounce, 95% lower', num: true, format: pct },
-    { key: 'bounceUpper', label: 'Bounce, 95% upper', num: true, format: pct },
-    { key: 'pagesPerSession', label: 'Pages per session', num: true, format: (v) => fmt.decimal(v, 2) },
-    { key: 'sessionRpm', label: `Session RPM (${fmt.currency})`, num: true, format: fmt.money },
-    { key: 'meanEntryAds', label: 'Ads on the page (mean)', num: true, format: (v) => fmt.decimal(v, 1) },
+    { key: 'sessions', label: 'Sessions', format: fmt.count },
+    { key: 'bounceRate', label: 'Bounce rate', format: pct },
+    { key: 'bounceLower', label: 'Bounce, 95% lower', format: pct },
+    { key: 'bounceUpper', label: 'Bounce, 95% upper', format: pct },
+    { key: 'pagesPerSession', label: 'Pages per session', format: (v) => fmt.decimal(v, 2) },
+    { key: 'sessionRpm', label: `Session RPM (${fmt.currency})`, format: fmt.money },
+    { key: 'meanEntryAds', label: 'Ads on the page (mean)', format: (v) => fmt.decimal(v, 1) },
   ];
-  if (state.compare) {
-    columns.push({ key: 'previousBounceRate', label: 'Bounce rate, previous period', num: true, format: pct },
-      { key: 'previousSessionRpm', label: `Session RPM, previous period (${fmt.currency})`, num: true, format: fmt.money });
-  }
+  if (state.compare) columns.push({ key: 'previous', label: 'Bounce rate, previous period', format: pct });
   const measure = sort === 'sessions' ? { key: 'sessions', label: 'Sessions', format: fmt.count }
     : sort === 'bounceRate' ? { key: 'bounceRate', label: 'Bounce rate', format: pct }
       : { key: 'sessionRpm', label: 'Session RPM', format: fmt.money };
@@ -64,16 +58,9 @@ export async function render(ctx) {
   const count = h('p', { class: 'quiet', id: 'pages-count' });
   ctx.main.append(views, search, count, panel.el);
 
-  let answer;
-  let before;
-  try {
-    [answer, before] = await Promise.all([metrics(ctx, 'pages', { sort, order, q, minSessions, limit }),
-      previous(ctx, 'pages', { sort: 'sessions', limit: 500, q })]);
-  } catch (e) {
-    if (e.name === 'AbortError') throw e;
-    panel.error(e);
-    return;
-  }
+  const loaded = await load(ctx, 'pages', { sort, order, q, minSessions, limit }, [panel], { sort: 'sessions', limit: 500, q });
+  if (!loaded) return;
+  const [answer, before] = loaded;
   showScope(ctx, scope, answer.scope, before?.scope);
   const rows = answer.rows;
   count.textContent = `${fmt.count(answer.matchingPaths)} entry paths match; showing ${fmt.count(rows.length)}.`;
@@ -82,14 +69,9 @@ export async function render(ctx) {
       : emptyMessage('entry pages with enough sessions', null));
     return;
   }
-  if (before) {
-    const prev = new Map(before.rows.map((r) => [r.path, r]));
-    for (const r of rows) {
-      r.previousBounceRate = prev.get(r.path)?.bounceRate ?? null;
-      r.previousSessionRpm = prev.get(r.path)?.sessionRpm ?? null;
-    }
-  }
-  panel.el.querySelector('.chart-box').classList.add(rows.length <= 10 ? 'size-m' : rows.length <= 20 ? 'size-l'
+  const prev = new Map(before?.rows.map((r) => [r.path, r.bounceRate]));
+  for (const r of rows) r.previous = prev.get(r.path) ?? null;
+  panel.el.querySelector('.chart-box').classList.add(rows.length <= 10 ? 'chart-box' : rows.length <= 20 ? 'size-l'
     : rows.length <= 50 ? 'size-xl' : 'size-xxl');
   panel.show(rows, {
     type: 'bar',
@@ -101,7 +83,7 @@ export async function render(ctx) {
     },
     options: {
       indexAxis: 'y',
-      scales: { x: { beginAtZero: true, ticks: { callback: (v) => (sort === 'bounceRate' ? fmt.percent(v, 0)
+      scales: { x: { beginAtZero: true, suggestedMax: sort === 'bounceRate' ? Math.min(1, Math.max(...rows.map((r) => r.bounceUpper))) : undefined, ticks: { callback: (v) => (sort === 'bounceRate' ? fmt.percent(v, 0)
         : measure.format(v)) } }, y: { ticks: { autoSkip: false } } },
       plugins: { legend: { display: false }, tooltip: { callbacks: {
         title: (items) => rows[items[0].dataIndex].path,

@@ -29,11 +29,11 @@ export async function render(ctx) {
     const range = state.from && state.to ? { from: state.from, to: state.to } : presetRange('7d', todayIn(site.timezone));
     const query = apiQuery({ ...state, ...range }, {}, { compare: false });
     const stats = h('dl', { class: 'site-stats', 'aria-busy': 'true' }, h('dt', { text: 'Loading…' }));
-    const spark = h('canvas', { class: 'spark', 'aria-hidden': 'true' });
+    const spark = h('canvas', { 'aria-hidden': 'true' });
     list.append(h('li', { class: 'site-card', 'data-site': String(site.id) },
       h('h2', null, ctx.link(withChanges(state, { screen: 'health', site: site.id }), site.name)),
       h('p', { class: 'muted', text: `${site.domain} · ${site.timezone} · ${site.currency}` }),
-      stats, spark));
+      stats, h('div', { class: 'spark' }, spark)));
     try {
       const base = `/api/v1/sites/${site.id}/metrics/`;
       const [overview, series] = await Promise.all([ctx.api.get(base + 'overview', query, ctx.signal),
@@ -44,7 +44,6 @@ export async function render(ctx) {
         ...item('Bounce rate', fmt.percent(o.bounceRate), 'bounceRate'),
         ...item('Session RPM', fmt.money(o.sessionRpm), 'sessionRpm'));
       sparkline(spark, series.points.map((p) => p.value));
-      spark.setAttribute('aria-hidden', 'true');
     } catch (e) {
       if (e.name === 'AbortError') throw e;
       stats.replaceChildren(h('dt', { class: 'error', text: e.message }));

@@ -15,9 +15,13 @@ test('money follows the site currency and the reader locale', () => {
   assert.equal(makeFormat('ja-JP', 'JPY').money(0.354), '￥0.354');
 });
 
-test('amounts under a cent keep three significant digits instead of showing zero', () => {
+test('small amounts keep two or three significant digits instead of showing zero', () => {
   assert.equal(en.money(0.0075), '€0.0075');
   assert.equal(en.money(0.001234), '€0.00123');
+  assert.equal(en.money(0.012), '€0.012');
+  assert.equal(en.money(0.07), '€0.07');
+  assert.equal(en.money(0.008), '€0.008');
+  assert.equal(en.money(0.5), '€0.50');
   assert.equal(en.money(0), '€0.00');
 });
 
@@ -26,6 +30,7 @@ test('rates, points, counts and durations', () => {
   assert.equal(de.percent(0.4567), '45,7\u00a0%');
   assert.equal(en.points(0.0123), '+1.2 pts');
   assert.equal(en.points(-0.07), '\u22127.0 pts');
+  assert.equal(en.points(-0.0003), '\u22120.03 pts');
   assert.equal(en.count(1234567), '1,234,567');
   assert.equal(de.count(1234567), '1.234.567');
   assert.equal(en.duration(41_000), '41 s');

@@ -58,5 +58,7 @@ test('changing screen resets the screen parameters, changing extras merges them'
 test('the API query carries the range, repeated filters, compare and extras', () => {
   const s = parseState('screen=density&site=1&from=2026-01-01&to=2026-01-28&variant=A&variant=B&compare=previous');
   assert.equal(apiQuery(s, { model: '' }), 'from=2026-01-01&to=2026-01-28&variant=A&variant=B&compare=previous');
+  assert.equal(s.extras.model, 'logistic');
+  assert.equal(toSearch({ ...s, extras: { model: 'linear' } }).endsWith('&model=linear'), true);
   assert.equal(apiQuery(s, { limit: 20 }, { compare: false }), 'from=2026-01-01&to=2026-01-28&variant=A&variant=B&limit=20');
 });

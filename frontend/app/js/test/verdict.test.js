@@ -1,66 +1,84 @@
 import { test } from 'node:test';
 import assert from 'node:assert/strict';
-import { readFit, densityVerdict, readRecommendation, num } from '../verdict.js';
+import { readFit, densityVerdict, kneeOf, readAdvice, num } from '../verdict.js';
 import { makeFormat } from '../format.js';
 
 const fmt = makeFormat('en-US', 'EUR');
 
-// a SegmentedFit as Jackson writes it: flat at 0.30 up to 5 ads, then +0.07 per ad
-const linear = {
-  breakpointCount: 1, selectionReason: 'BIC prefers 1 breakpoint over 0 and 2', intercept: 0.3,
-  breakpoints: [{ estimate: 5.0, slopeChange: 0.07, standardError: 0.3, lower: 4.4, upper: 5.6,
-    bootstrapLower: 'NaN', bootstrapUpper: 'NaN' }],
-  slopes: [{ estimate: 0.0, standardError: 0.004, lower: -0.008, upper: 0.008 },
-    { estimate: 0.07, standardError: 0.01, lower: 0.05, upper: 0.09 }],
-  davies: { pValue: 0.0004, statistic: 5.1 },
+// a FitSummary as the density answer carries it: flat at 0.30 up to 5 ads, then +0.07 per ad
+const curve = [];
+for (let x = 0; x <= 10; x += 0.5) curve.push({ x, y: 0.3 + Math.max(0, x - 5) * 0.07 });
+const summary = {
+  model: 'segmented linear regression, weighted (Muggeo 2003)', breakpointCount: 1,
+  reason: 'BIC: 1 breakpoint (BIC -41.2) beats 0 (-20.3)',
+  breakpoints: [{ estimate: 5.0, standardError: 0.3, lower: 4.4, upper: 5.6 }],
+  slopes: [{ estimate: 0, lower: -0.008, upper: 0.008, unit: 'bounce rate per ad' }, { estimate: 0.07, unit: 'bounce rate per ad' }],
+  breakTest: { method: 'Davies (2002)', pValue: 0.0004, breakFound: true },
+  curve,
 };
 
-test('a significant knee after a flat stretch is said in words', () => {
-  const fit = readFit(linear);
-  assert.equal(fit.predict(3), 0.3);
-  assert.ok(Math.abs(fit.predict(7) - 0.44) < 1e-12);
-  assert.equal(densityVerdict(fit, fmt, 0, 10),
-    'Bounce stays flat up to 5 ads, then rises about 7 points per extra ad (break test p < 0.001; knee between 4.4 and 5.6 ads).');
+test('the fit is read in one shape', () => {
+  const fit = readFit(summary);
+  assert.equal(fit.breakFound, true);
+  assert.equal(fit.pValue, 0.0004);
+  assert.equal(fit.curve.length, 21);
+  assert.deepEqual(fit.breakpoints, [{ estimate: 5, lower: 4.4, upper: 5.6 }]);
+  assert.equal(fit.slopes[1].unit, 'bounce rate per ad');
 });
 
-test('a knee whose first segment already rises says so', () => {
-  const fit = readFit({ ...linear, slopes: [{ estimate: 0.012, lower: 0.004, upper: 0.02 }, linear.slopes[1]] });
-  assert.match(densityVerdict(fit, fmt, 0, 10), /^Bounce rises about 1.2 points per extra ad up to 5 ads, then rises about 7 points/);
+test("the server's verdict is said with the break test's p-value", () => {
+  const fit = readFit({ ...summary, verdict: 'bounce stays about flat up to 5.0 ads (95% interval 4.4 to 5.6), then rises about 7.0 points per extra ad' });
+  assert.equal(densityVerdict(fit, fmt), 'Bounce stays about flat up to 5.0 ads (95% interval 4.4 to 5.6), '
+    + 'then rises about 7.0 points per extra ad (break test p < 0.001).');
+  assert.equal(densityVerdict(readFit({ ...summary, verdict: 'no clear knee: the break test finds no change of slope (p = 0.41)' }), fmt),
+    'No clear knee: the break test finds no change of slope (p = 0.41).');
 });
 
-test('no knee when the break test does not reject', () => {
-  const fit = readFit({ ...linear, davies: { pValue: 0.41 } });
-  assert.equal(densityVerdict(fit, fmt, 0, 10),
-    'No clear knee: bounce rises about 4 points per extra ad across 0 to 10 ads (break test p = 0.41).');
+test('without words from the server the knee is still named', () => {
+  assert.equal(densityVerdict(readFit(summary), fmt), 'The slope changes at 5.0 ads (break test p < 0.001).');
+  assert.equal(densityVerdict(readFit({ ...summary, breakTest: { pValue: 0.41, breakFound: false } }), fmt),
+    'No clear knee (break test p = 0.41).');
 });
 
-test('a wrapped logistic fit uses the fitted probabilities', () => {
-  const fit = readFit({ model: 'logistic', reason: 'bounce is a proportion', fit: {
-    intercept: -1, deviance: 12, breakpoints: [{ estimate: 4, slopeChange: 0.5, lower: 3, upper: 5 }],
-    slopes: [{ estimate: 0 }, { estimate: 0.5 }], davies: { pValue: 0.01 } } });
-  assert.equal(fit.logistic, true);
-  assert.equal(fit.reason, 'bounce is a proportion');
-  assert.ok(Math.abs(fit.predict(0) - 1 / (1 + Math.E)) < 1e-12);
-  assert.match(densityVerdict(fit, fmt, 0, 8), /^Bounce stays flat up to 4 ads, then rises about \d+ points per extra ad/);
-});
-
-test('no fit: the server reason is passed on; absence is said plainly', () => {
-  assert.equal(densityVerdict(readFit({ reason: 'TOO_FEW_DISTINCT_X', message: 'only 3 distinct ads-per-page values' }), fmt, 0, 2),
-    'No knee could be estimated: only 3 distinct ads-per-page values.');
+test('thin data: the notice is passed on; no fit at all is said plainly', () => {
+  assert.equal(densityVerdict(readFit({ notice: 'not enough data for a knee: 2 ad counts' }), fmt),
+    'Not enough data for a knee: 2 ad counts.');
+  assert.equal(densityVerdict(readFit({ notice: 'the fit did not converge' }), fmt), 'No knee: the fit did not converge.');
   assert.equal(readFit(null), null);
-  assert.equal(densityVerdict(null, fmt, 0, 1), 'The server has not estimated a knee for this answer.');
+  assert.equal(densityVerdict(null, fmt), 'The server has not estimated a knee for this answer.');
 });
 
-test('the recommendation: cap, probability of being best, expected gain and caution', () => {
-  const r = readRecommendation({
-    recommendedCap: 5, summary: 'Cap at 5 ads.', caution: 'Observational data.',
-    caps: [{ adCount: 4, probabilityBest: 0.2 }, { adCount: 5, probabilityBest: 0.71 }],
-    expectedGainRpm: { estimate: 0.42, lower: -0.1, upper: 0.9 }, currentSessionRpm: 3.1,
-  });
-  assert.deepEqual(r, { cap: 5, label: null, probability: 0.71, gain: { estimate: 0.42, lower: -0.1, upper: 0.9 },
-    current: 3.1, summary: 'Cap at 5 ads.', caution: 'Observational data.' });
-  assert.equal(readRecommendation(undefined), null);
-  assert.equal(readRecommendation({ recommendedCap: null, summary: 'Not enough data.' }).cap, null);
+test("a saturating curve's knee: Kneedle first, the segmented break second, else the reason", () => {
+  const words = (x) => `after about ${x} pages`;
+  assert.equal(kneeOf({ kneedle: { found: true, knee: 4 }, segmented: summary }, null, words).text,
+    'Knee (Kneedle): after about 4 pages.');
+  assert.equal(kneeOf({ kneedle: { found: false, reason: 'flat' }, segmented: summary }, null, words).x, 5);
+  assert.equal(kneeOf({ kneedle: { found: false, reason: 'the curve is flat' }, segmented: { notice: 'no fit' } }, null, words).text,
+    'No knee: the curve is flat.');
+  assert.equal(kneeOf({ kneedle: { found: false, reason: 'no knee: never below the threshold' } }, null, words).text,
+    'No knee: never below the threshold.');
+  assert.equal(kneeOf(undefined, 'fewer than 200 sessions in this segment (40)', words).text,
+    'No knee: fewer than 200 sessions in this segment (40).');
+});
+
+test('the ad-cap advice in currency units, whichever unit its RPM fields carry', () => {
+  const a = readAdvice({
+    cap: 5, probabilityBest: 0.71, currentSessionRpmMicros: 15_630_000, expectedGainMicros: 420_000,
+    expectedGainLower: -100_000, expectedGainUpper: 900_000, summary: 'Cap at 5 ads.', caution: 'Observational data.',
+    entryCap: 4, laterCap: 6, pairProbabilityBest: 0.4,
+    caps: [{ ads: 5, status: 'enough_data', sessionRpmMicros: 16_050_000, lower: 15_000_000, upper: 17_000_000, probabilityBest: 0.71 },
+      { ads: 9, status: 'not_enough_data', note: 'only 120 pages', probabilityBest: 0 }],
+  }, 15.2);
+  assert.equal(a.cap, 5);
+  assert.equal(a.probability, 0.71);
+  assert.deepEqual(a.gain, { estimate: 0.42, lower: -0.1, upper: 0.9 });
+  assert.equal(a.current, 15.63);
+  assert.deepEqual(a.pair, { entry: 4, later: 6, probability: 0.4, summary: null });
+  assert.deepEqual(a.caps.map((c) => [c.ads, c.enough, c.sessionRpm]), [[5, true, 16.05], [9, false, null]]);
+  // the same advice with RPM in currency units, as AdCapRecommender returns it
+  const c = readAdvice({ cap: 5, currentSessionRpmMicros: 15.63, expectedGainMicros: 0.42, caps: [{ ads: 5, sessionRpmMicros: 16.05 }] }, 15.2);
+  assert.deepEqual([c.current, c.gain.estimate, c.caps[0].sessionRpm], [15.63, 0.42, 16.05]);
+  assert.equal(readAdvice(undefined), null);
+  assert.equal(readAdvice({ summary: 'Not enough data.' }).cap, null);
   assert.equal(num('NaN'), null);
-  assert.equal(num('0.5'), 0.5);
 });

@@ -106,7 +106,7 @@ class BrowserUiTests {
         lantern = sites.create(new SiteSettings("Lantern Weekly", "lantern.example", "America/New_York", "USD", null,
                 null, null));
         today = LocalDate.now(ZoneId.of("Europe/Lisbon"));
-        ingest(gazette, sessions(gazette, 56, 60, 20260501L));
+        ingest(gazette, sessions(gazette, 56, 200, 20260501L));
         ingest(lantern, sessions(lantern, 20, 2, 7L));
         sessionizer.run(gazette.id());
         sessionizer.run(lantern.id());
@@ -153,7 +153,7 @@ class BrowserUiTests {
         JsonNode o = api(gazette, "overview", "from=" + from + "&to=" + today).get("current");
         assertThat(card.findElement(By.cssSelector("dd[data-key=sessions]")).getText())
                 .isEqualTo(String.format(java.util.Locale.US, "%,d", o.get("sessions").asLong()));
-        waitFor("sparkline", d -> "7".equals(card.findElement(By.cssSelector("canvas.spark")).getDomAttribute("data-points")));
+        waitFor("sparkline", d -> "7".equals(card.findElement(By.cssSelector(".spark canvas")).getDomAttribute("data-points")));
         screenshot("01-sites");
         card.findElement(By.tagName("a")).click();
         waitRendered();
@@ -169,7 +169,7 @@ class BrowserUiTests {
         assertThat(seriesValues("chart-series", 0)).isEqualTo(apiValues(api(gazette, "timeseries", range())
                 .get("points"), "value"));
         // every tile draws its own trend line of 28 days
-        waitFor("sparklines", d -> driver.findElements(By.cssSelector(".tile canvas.spark[data-points='28']")).size() == 13);
+        waitFor("sparklines", d -> driver.findElements(By.cssSelector(".tile .spark canvas[data-points='28']")).size() == 13);
 
         // compare with the previous period: the URL says so and the chart gets a second line
         int before = renders();
@@ -194,7 +194,8 @@ class BrowserUiTests {
 
         // an empty note is refused in words before it reaches the server
         driver.findElement(By.id("add-note")).click();
-        assertThat(driver.findElement(By.cssSelector(".notes .form-message")).getText()).contains("Write the note");
+        assertThat(driver.findElement(By.cssSelector("section[aria-labelledby=notes-title] .form-message")).getText())
+                .contains("Write the note");
     }
 
     @Test
@@ -206,10 +207,22 @@ class BrowserUiTests {
         assertThat(points("chart-volume", 0)).isEqualTo(11);
         List<Double> ys = doubles("return Chart.getChart('chart-bounce').data.datasets[0].data.map(p => p.y)");
         assertThat(ys).isEqualTo(apiValues(answer.get("points"), "bounceRate"));
-        assertThat(driver.findElement(By.id("verdict")).getText()).isNotBlank();
-        if (answer.hasNonNull("fit")) {
-            assertThat(js("return Chart.getChart('chart-bounce').data.datasets[1].label")).isEqualTo("Fitted segmented line");
-        }
+        // the knee: fitted curve, verdict in words with the break test, model and reason; the recommended cap
+        JsonNode fit = answer.get("fit");
+        assertThat(fit.get("curve").size()).isGreaterThan(2);
+        assertThat(js("return Chart.getChart('chart-bounce').data.datasets[1].data.length"))
+                .isEqualTo((long) fit.get("curve").size());
+        String verdict = fit.get("verdict").stringValue();
+        assertThat(driver.findElement(By.id("verdict")).getText())
+                .startsWith(verdict.substring(0, 1).toUpperCase() + verdict.substring(1));
+        assertThat(driver.findElement(By.id("model")).getText()).contains("Model: " + fit.get("model").stringValue(),
+                "Break test");
+        JsonNode advice = answer.get("recommendation");
+        assertThat(driver.findElement(By.cssSelector("#recommendation .cap")).getText())
+                .isEqualTo("At most " + advice.get("cap").asInt() + " ads per page");
+        assertThat(driver.findElement(By.id("cap-facts")).getText()).contains("probability that it is the best cap",
+                "expected gain");
+        assertThat(points("chart-caps", 0)).isEqualTo(advice.get("caps").size());
         // thin points (fewer than 100 sessions) are drawn hollow
         assertThat(js("return Chart.getChart('chart-bounce').data.datasets[0].backgroundColor.filter(c => c === '#ffffff').length"))
                 .isEqualTo(countThin(answer.get("points")));
@@ -287,6 +300,7 @@ class BrowserUiTests {
         JsonNode depth = api(gazette, "depth", range());
         assertThat(points("chart-revenue", 0)).isEqualTo(depth.get("points").size()).isEqualTo(11);
         assertThat(points("chart-marginal", 0)).isEqualTo(11);
+        assertThat(driver.findElement(By.id("depth-knee")).getText()).containsAnyOf("Knee (", "No knee: ");
         screenshot("04-depth");
 
         open(screen("engagement"));
@@ -294,6 +308,7 @@ class BrowserUiTests {
         assertThat(points("chart-engaged", 0)).isEqualTo(engagement.get("points").size()).isEqualTo(7);
         assertThat(doubles("return Chart.getChart('chart-engaged').data.datasets[0].data"))
                 .isEqualTo(apiValues(engagement.get("points"), "pageRpm"));
+        assertThat(driver.findElement(By.id("engagement-knee")).getText()).containsAnyOf("Knee (", "No knee: ");
         screenshot("05-engagement");
 
         open(screen("pages") + "&sort=bounceRate");
@@ -554,9 +569,9 @@ class BrowserUiTests {
     // --------------------------------------------------------------------------------------------- seed data
 
     /**
-     * Whole sessions over the last {@code days} days (the ingest API's "session" events): bounce flat up to 5 ads
-     * on the entry page, then rising 7 points per ad; few sessions at 9 and 10 ads so those points are thin; one
-     * entry path and one variant label carry markup.
+     * Whole sessions over the last {@code days} days (the ingest API's "session" events), {@code perDay} a day in the
+     * last 28 days and a third of that before: bounce flat up to 5 ads on the entry page, then rising 7 points per
+     * ad; few sessions at 9 and 10 ads so those points are thin; one entry path and one variant label carry markup.
      */
     List<String> sessions(Site site, int days, int perDay, long seed) {
         Random random = new Random(seed);
@@ -568,7 +583,7 @@ class BrowserUiTests {
         String[] browsers = {"Lumen", "Lumen", "Quill", "Marten"};
         int n = 0;
         for (int day = 1; day <= days; day++) {
-            for (int i = 0; i < perDay; i++) {
+            for (int i = 0; i < (day <= 28 ? perDay : perDay / 3); i++) {
                 int ads = random.nextInt(100) < 94 ? random.nextInt(9) : 9 + random.nextInt(2);
                 double bounceP = 0.30 + Math.max(0, ads - 5) * 0.07;
                 boolean bounce = random.nextDouble() < bounceP;
