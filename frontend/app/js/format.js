@@ -40,11 +40,12 @@ export function makeFormat(locale, currency = 'EUR') {
       return (n < 0 ? MINUS : '+') + abs;
     },
     times: (r) => (finite(r) ? nf({ minimumFractionDigits: 2, maximumFractionDigits: 2 }).format(r) + '×' : dash),
-    /** Milliseconds as "42 s" or "3 min 05 s". */
+    /** Milliseconds as "4.2 s", "42 s" or "3 min 05 s". */
     duration: (ms) => {
       if (!finite(ms)) return dash;
+      if (ms < 9950) return fmt.decimal(ms / 1000, 1) + ' s';
       const s = Math.round(ms / 1000);
-      if (s < 60) return nf({ maximumFractionDigits: 0 }).format(s) + ' s';
+      if (s < 60) return s + ' s';
       const m = Math.floor(s / 60);
       return nf({ maximumFractionDigits: 0 }).format(m) + ' min ' + String(s % 60).padStart(2, '0') + ' s';
     },

@@ -50,6 +50,6 @@ export function formatChange(fmt, name, change) {
     case 'rate': return fmt.points(change);
     case 'duration': return (change < 0 ? '−' : '+') + fmt.duration(Math.abs(change));
     case 'money': return (change < 0 ? '−' : '+') + fmt.money(Math.abs(change) / 1e6);
-    default: return fmt.signed(change, 2);
+    default: return fmt.signed(change, Math.abs(change) < 0.01 ? 3 : 2);
   }
 }

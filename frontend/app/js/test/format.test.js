@@ -34,6 +34,7 @@ test('rates, points, counts and durations', () => {
   assert.equal(en.count(1234567), '1,234,567');
   assert.equal(de.count(1234567), '1.234.567');
   assert.equal(en.duration(41_000), '41 s');
+  assert.equal(en.duration(420), '0.4 s');
   assert.equal(en.duration(185_000), '3 min 05 s');
   assert.equal(en.times(1.0667), '1.07×');
   assert.equal(en.pValue(0.0002), 'p < 0.001');
@@ -60,6 +61,7 @@ test('metrics are formatted by kind; money metrics come in micros', () => {
   assert.equal(formatMetric(en, 'sessions', null), '–');
   assert.equal(formatChange(en, 'bounceRate', -0.021), '\u22122.1 pts');
   assert.equal(formatChange(en, 'revenue', -2_500_000), '−€2.50');
+  assert.equal(formatChange(en, 'pagesPerSession', -0.004), '\u22120.004');
   assert.equal(overviewValue({ pageRpm: 1.5, pageRpmMicros: 1_500_000 }, 'pageRpm'), 1_500_000);
 });
 
