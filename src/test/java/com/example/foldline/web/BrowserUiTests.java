@@ -1,7 +1,7 @@
 package com.example.foldline.web;
 
 import static org.assertj.core.api.Assertions.assertThat;
-import static org.assertj.core.api.Assertions.within;
+import static org.junit.jupiter.api.Assumptions.assumeTrue;
 
 import java.io.File;
 import java.io.IOException;
@@ -27,10 +27,12 @@ import java.util.stream.Stream;
 
 import org.junit.jupiter.api.AfterAll;
 import org.junit.jupiter.api.BeforeAll;
+import org.junit.jupiter.api.BeforeEach;
 import org.junit.jupiter.api.MethodOrderer;
 import org.junit.jupiter.api.Order;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.TestInstance;
+import org.junit.jupiter.api.TestInfo;
 import org.junit.jupiter.api.TestMethodOrder;
 import org.junit.jupiter.api.extension.ConditionEvaluationResult;
 import org.junit.jupiter.api.extension.ExecutionCondition;
@@ -64,6 +66,10 @@ import tools.jackson.databind.ObjectMapper;
  * against the application on a random port with data seeded through the ingest API. One class, one Spring context
  * and one browser for every browser test, so the suite stays fast. Screenshots land in target/screenshots/ and the
  * timings in target/browser-timings.md (copied into docs/benchmarks.md).
+ * <p>
+ * Timing another database (docs/benchmarks.md, "Browser UI"): {@code -Dfoldline.ui.bench.site=<site id>} with
+ * {@code -Dspring.datasource.url=…} and {@code -Dfoldline.ui.bench.password=…} (the admin's) runs only
+ * {@link #timingsOfFirstChartAndRedraw()} against that site and seeds nothing.
  */
 @SpringBootTest(webEnvironment = SpringBootTest.WebEnvironment.RANDOM_PORT)
 @ActiveProfiles("test")
@@ -99,8 +105,20 @@ class BrowserUiTests {
     final HttpClient http = HttpClient.newHttpClient();
     final Map<String, String> timings = new LinkedHashMap<>();
 
+    static final Long BENCH_SITE = Long.getLong("foldline.ui.bench.site");
+
+    @BeforeEach
+    void onlyTimingsWhenTimingAnotherDatabase(TestInfo test) {
+        assumeTrue(BENCH_SITE == null || test.getTestMethod().orElseThrow().getName().startsWith("timings"),
+                "timing another database: only the timings run");
+    }
+
     @BeforeAll
     void seedAndStartBrowser(@TempDir Path temp) throws Exception {
+        if (BENCH_SITE != null) {
+            startBrowser(temp);
+            return;
+        }
         gazette = sites.create(new SiteSettings("Harbour Gazette", "gazette.example", "Europe/Lisbon", "EUR", null,
                 null, null));
         lantern = sites.create(new SiteSettings("Lantern Weekly", "lantern.example", "America/New_York", "USD", null,
@@ -110,7 +128,10 @@ class BrowserUiTests {
         ingest(lantern, sessions(lantern, 20, 2, 7L));
         sessionizer.run(gazette.id());
         sessionizer.run(lantern.id());
+        startBrowser(temp);
+    }
 
+    void startBrowser(Path temp) throws Exception {
         downloads = Files.createDirectories(temp.resolve("downloads"));
         ChromeOptions options = new ChromeOptions();
         options.setBinary(CHROMIUM);   // binary and driver given: Selenium Manager never runs, nothing is downloaded
@@ -404,7 +425,7 @@ class BrowserUiTests {
         for (String screen : List.of("health", "density", "depth", "engagement", "pages", "geography")) {
             List<Double> first = new ArrayList<>();
             for (int i = 0; i < 3; i++) {
-                open(screen(screen));
+                open(BENCH_SITE == null ? screen(screen) : "/?screen=" + screen + "&site=" + BENCH_SITE);
                 first.add(((Number) js("return performance.getEntriesByName('foldline:first-chart')[0].startTime"))
                         .doubleValue());
             }
@@ -444,7 +465,7 @@ class BrowserUiTests {
         driver.get(base() + address);
         waitFor("login page", d -> !d.findElements(By.name("username")).isEmpty());
         driver.findElement(By.name("username")).sendKeys("admin");
-        driver.findElement(By.name("password")).sendKeys("admin-secret");
+        driver.findElement(By.name("password")).sendKeys(System.getProperty("foldline.ui.bench.password", "admin-secret"));
         driver.findElement(By.cssSelector("button[type=submit]")).click();
         waitFor("the app", d -> !d.findElements(By.id("main")).isEmpty());
     }
