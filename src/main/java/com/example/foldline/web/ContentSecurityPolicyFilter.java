@@ -21,17 +21,18 @@ import jakarta.servlet.http.HttpServletRequest;
 import jakarta.servlet.http.HttpServletResponse;
 
 /**
- * Sends a Content-Security-Policy with every answer of the browser UI: scripts only from our own origin, no inline
- * script or style. The one inline element the UI has, its import map (which browsers treat as a script), is allowed
- * by its SHA-256 hash, computed from the packaged {@code static/index.html} at start so the two never drift apart.
- * Spring Security's generated login page and the API explorer bring their own inline code and are left out.
+ * Sends a Content-Security-Policy with the browser UI's page: scripts only from our own origin, no inline script
+ * or style. The one inline element the UI has, its import map (which browsers treat as a script), is allowed by its
+ * SHA-256 hash, computed from the packaged {@code static/index.html} at start so the two never drift apart. Only the
+ * UI's document gets the policy (a policy acts on documents): the login page, the API explorer and pages of other
+ * origins that load the site tag bring their own rules.
  */
 @Component
 class ContentSecurityPolicyFilter extends OncePerRequestFilter {
 
     private static final Pattern IMPORT_MAP = Pattern.compile("<script type=\"importmap\">(.*?)</script>",
             Pattern.DOTALL);
-    private static final List<String> EXCLUDED = List.of("/login", "/logout", "/swagger-ui", "/v3/api-docs");
+    private static final List<String> APP = List.of("/", "/index.html");
 
     private final String policy;
 
@@ -51,7 +52,7 @@ class ContentSecurityPolicyFilter extends OncePerRequestFilter {
     protected void doFilterInternal(HttpServletRequest request, HttpServletResponse response, FilterChain chain)
             throws ServletException, IOException {
         String path = request.getRequestURI().substring(request.getContextPath().length());
-        if (EXCLUDED.stream().noneMatch(path::startsWith)) {
+        if (APP.contains(path)) {
             response.setHeader("Content-Security-Policy", policy);
         }
         chain.doFilter(request, response);

@@ -32,13 +32,16 @@ class ContentSecurityPolicyTests {
                 .matcher(html);
         assertThat(m.find()).isTrue();
         String expected = "script-src 'self' 'sha256-" + ContentSecurityPolicyFilter.sha256(m.group(1)) + "';";
-        var page = mvc.get().uri("/index.html").with(httpBasic("admin", "admin-secret")).exchange();
+        var page = mvc.get().uri("/").with(httpBasic("admin", "admin-secret")).exchange();
         assertThat(page).hasStatusOk();
         String policy = page.getResponse().getHeader("Content-Security-Policy");
+        assertThat(mvc.get().uri("/index.html").with(httpBasic("admin", "admin-secret")).exchange().getResponse()
+                .getHeader("Content-Security-Policy")).isEqualTo(policy);
         assertThat(policy).contains(expected, "style-src 'self';", "object-src 'none'", "frame-ancestors 'none'")
                 .doesNotContain("unsafe-inline", "unsafe-eval");
-        // the generated login page (replaced by issue #6) keeps its own inline styles, so it gets no policy here
+        // only the UI's page: the generated login page keeps its own inline styles, the tag is loaded by other sites
         assertThat(mvc.get().uri("/login").exchange().getResponse().getHeader("Content-Security-Policy")).isNull();
+        assertThat(mvc.get().uri("/tag.js").exchange().getResponse().getHeader("Content-Security-Policy")).isNull();
     }
 
     @Test
