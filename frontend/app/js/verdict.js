@@ -59,16 +59,10 @@ export function kneeOf(report, notice, words) {
   return k;
 }
 
-/**
- * CapAdvice as {cap, probability, gain, current, summary, caution, pair, caps}, money in currency units. Its …Micros
- * RPM fields have carried currency units (AdCapRecommender's session RPM), so the unit is read against `siteRpm`,
- * the answer's own session RPM in currency units: a value a thousand times larger is taken as micros.
- */
-export function readAdvice(raw, siteRpm) {
+/** CapAdvice as {cap, probability, gain, current, summary, caution, pair, caps}, money in currency units. */
+export function readAdvice(raw) {
   if (!raw || typeof raw !== 'object') return null;
-  const probe = num(raw.currentSessionRpmMicros) ?? Math.max(0, ...(raw.caps ?? []).map((c) => num(c.sessionRpmMicros) ?? 0));
-  const unit = siteRpm > 0 && probe / siteRpm > 1000 ? 1e6 : 1;
-  const m = (v) => (num(v) === null ? null : num(v) / unit);
+  const m = (v) => (num(v) === null ? null : num(v) / 1e6);
   return {
     cap: num(raw.cap),
     probability: num(raw.probabilityBest),

@@ -67,7 +67,7 @@ export async function render(ctx) {
   const points = answer.points;
   const fit = readFit(answer.fit);
   const sessions = points.reduce((n, p) => n + p.sessions, 0);
-  const advice = readAdvice(answer.recommendation, points.reduce((s, p) => s + (p.sessionRpm ?? 0) * p.sessions, 0) / sessions);
+  const advice = readAdvice(answer.recommendation);
   if (!points.length) {
     const msg = emptyMessage('sessions', answer.notice);
     for (const p of [bounce, volume, caps]) p.empty(msg);

@@ -187,9 +187,9 @@ class KneeAnalysis {
         for (AdCapRecommender.CapValue c : rec.caps()) {
             caps.add(new CapAdvice.CapOption(c.adCount(), c.status().name().toLowerCase(Locale.ROOT), c.note(),
                     c.pages(), finite(c.exitRate()), finite(c.revenuePerPageMicros()),
-                    c.sessionRpm() == null ? null : finite(c.sessionRpm().estimate()),
-                    c.sessionRpm() == null ? null : finite(c.sessionRpm().lower()),
-                    c.sessionRpm() == null ? null : finite(c.sessionRpm().upper()), finite(c.probabilityBest())));
+                    c.sessionRpm() == null ? null : micros(c.sessionRpm().estimate()),
+                    c.sessionRpm() == null ? null : micros(c.sessionRpm().lower()),
+                    c.sessionRpm() == null ? null : micros(c.sessionRpm().upper()), finite(c.probabilityBest())));
             if (rec.recommendedCap().isPresent() && rec.recommendedCap().get() == c.adCount()) {
                 probability = finite(c.probabilityBest());
             }
@@ -207,14 +207,15 @@ class KneeAnalysis {
                 entryCap = two.recommended().get().entryAdCount();
                 laterCap = two.recommended().get().laterAdCount();
                 pairProbability = finite(two.recommended().get().probabilityBest());
-                pairRpm = finite(two.recommended().get().sessionRpm().estimate());
+                pairRpm = micros(two.recommended().get().sessionRpm().estimate());
             }
         }
+        // the recommender works in currency units per 1,000 sessions; the API gives micro-units like every money field
         return new CapAdvice(rec.recommendedCap().orElse(null), probability,
-                rec.currentSessionRpm().isPresent() ? rec.currentSessionRpm().getAsDouble() : null,
-                rec.expectedGainRpm().map(i -> finite(i.estimate())).orElse(null),
-                rec.expectedGainRpm().map(i -> finite(i.lower())).orElse(null),
-                rec.expectedGainRpm().map(i -> finite(i.upper())).orElse(null), rec.summary(), caps, entryCap,
+                rec.currentSessionRpm().isPresent() ? micros(rec.currentSessionRpm().getAsDouble()) : null,
+                rec.expectedGainRpm().map(i -> micros(i.estimate())).orElse(null),
+                rec.expectedGainRpm().map(i -> micros(i.lower())).orElse(null),
+                rec.expectedGainRpm().map(i -> micros(i.upper())).orElse(null), rec.summary(), caps, entryCap,
                 laterCap, pairProbability, pairRpm, pairSummary, rec.resamples(), rec.caution());
     }
 
@@ -230,6 +231,10 @@ class KneeAnalysis {
     private static List<FitSummary.SlopeEstimate> slopes(List<Slope> list, String unit) {
         return list.stream().map(s -> new FitSummary.SlopeEstimate(s.estimate(), finite(s.standardError()),
                 finite(s.lower()), finite(s.upper()), unit)).toList();
+    }
+
+    static Double micros(double currencyUnits) {
+        return finite(currencyUnits * 1_000_000);
     }
 
     static Double finite(double v) {
