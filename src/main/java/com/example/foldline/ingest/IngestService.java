@@ -61,66 +61,39 @@ public class IngestService {
             } catch (IOException e) {
                 throw new UncheckedIOException(e);
             }
-            b.flush();
-            if (b.batchId >= 0) {
-                writer.closeBatch(b.batchId, b.newest);
-            }
+            b.events.finish();
             return b;
         });
-        if (batch.pageviewsStored + batch.pageEndsStored + batch.impressionsStored + batch.sessionsStored > 0) {
-            events.publishEvent(new EventsIngested(site.id(), batch.pageviewsStored, batch.pageEndsStored,
-                    batch.impressionsStored, batch.sessionsStored));
+        EventsIngested ingested = batch.events.ingested();
+        if (ingested != null) {
+            events.publishEvent(ingested);
         }
-        long stored = batch.pageviewsStored + batch.pageEndsStored + batch.impressionsStored + batch.sessionsStored;
-        return new IngestResult(stored, batch.valid - stored, List.copyOf(batch.rejections), batch.rejectedCount);
+        return new IngestResult(batch.events.stored(), batch.events.duplicates(), List.copyOf(batch.rejections),
+                batch.rejectedCount);
     }
 
-    /** Collects valid events into per-type batches and writes each when full. */
+    /** Parses each event of the body into the transaction's {@link EventBatch}, writing it whenever it is full. */
     private final class Batch implements EventStream.Sink {
-        final Site site;
-        final Instant now;
         final EventParser parser;
-        final List<Event.Pageview> pageviews = new ArrayList<>();
-        final List<Event.PageEnd> pageEnds = new ArrayList<>();
-        final List<Event.Impression> impressions = new ArrayList<>();
-        final List<Event.Session> sessions = new ArrayList<>();
+        final EventBatch events;
         final List<IngestResult.Rejection> rejections = new ArrayList<>();
         long rejectedCount;
-        long valid;
-        long pageviewsStored;
-        long pageEndsStored;
-        long impressionsStored;
-        long sessionsStored;
-        long batchId = -1;
-        Instant newest;
 
         Batch(Site site, Instant now) {
-            this.site = site;
-            this.now = now;
             this.parser = new EventParser(site, now, pseudonyms);
+            this.events = new EventBatch(writer, site, now);
         }
 
         @Override
         public void event(long line, JsonNode node) {
-            Event event;
             try {
-                event = parser.parse(node);
+                events.add(parser.parse(node));
             } catch (EventParser.Rejected r) {
                 reject(line, r.field, r.getMessage());
                 return;
             }
-            valid++;
-            if (event instanceof Event.Pageview p) {
-                pageviews.add(p);
-            } else if (event instanceof Event.PageEnd e) {
-                pageEnds.add(e);
-            } else if (event instanceof Event.Impression i) {
-                impressions.add(i);
-            } else if (event instanceof Event.Session s) {
-                sessions.add(s);
-            }
-            if (pageviews.size() + pageEnds.size() + impressions.size() + sessions.size() >= properties.batchSize()) {
-                flush();
+            if (events.pending() >= properties.batchSize()) {
+                events.flush();
             }
         }
 
@@ -133,36 +106,6 @@ public class IngestService {
             rejectedCount++;
             if (rejections.size() < IngestResult.MAX_LISTED) {
                 rejections.add(new IngestResult.Rejection(line, field, message));
-            }
-        }
-
-        void flush() {
-            if (pageviews.isEmpty() && pageEnds.isEmpty() && impressions.isEmpty() && sessions.isEmpty()) {
-                return;
-            }
-            if (batchId < 0) {
-                batchId = writer.openBatch(site);
-            }
-            for (Event.Pageview p : pageviews) {
-                if (newest == null || p.ts().isAfter(newest)) {
-                    newest = p.ts();
-                }
-            }
-            if (!pageviews.isEmpty()) {
-                pageviewsStored += writer.pageviews(site, batchId, pageviews, now);
-                pageviews.clear();
-            }
-            if (!pageEnds.isEmpty()) {
-                pageEndsStored += writer.pageEnds(site, batchId, pageEnds, now);
-                pageEnds.clear();
-            }
-            if (!impressions.isEmpty()) {
-                impressionsStored += writer.impressions(site, batchId, impressions, now);
-                impressions.clear();
-            }
-            if (!sessions.isEmpty()) {
-                sessionsStored += writer.sessions(site, sessions, now);
-                sessions.clear();
             }
         }
     }
