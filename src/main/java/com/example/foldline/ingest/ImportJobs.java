@@ -53,8 +53,7 @@ class ImportJobs {
         if (file == null || file.isEmpty()) {
             throw new BadRequestException("file", "is required and must not be empty");
         }
-        String name = file.getOriginalFilename() == null || file.getOriginalFilename().isBlank() ? "upload"
-                : Path.of(file.getOriginalFilename().replace('\\', '/')).getFileName().toString();
+        String name = displayName(file.getOriginalFilename());
         JsonNode mappingJson = null;
         if (mapping != null && !mapping.isBlank()) {
             try {
@@ -178,6 +177,19 @@ class ImportJobs {
         } catch (IOException e) {
             throw new UncheckedIOException(e);
         }
+    }
+
+    /** The last part of a client's file name, for display only (it never names a file on the server). */
+    static String displayName(String original) {
+        if (original == null) {
+            return "upload";
+        }
+        String name = original.substring(Math.max(original.lastIndexOf('/'), original.lastIndexOf('\\')) + 1)
+                .replaceAll("\\p{Cntrl}", "").strip();
+        if (name.length() > 200) {
+            name = name.substring(0, 200);
+        }
+        return name.isEmpty() ? "upload" : name;
     }
 
     private static void deleteQuietly(Path file) {

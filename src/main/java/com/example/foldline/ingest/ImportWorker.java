@@ -65,7 +65,7 @@ class ImportWorker {
 
     @EventListener(ApplicationReadyEvent.class)
     void started() {
-        recover();
+        scheduled();
     }
 
     @Scheduled(fixedDelayString = "${foldline.imports.poll-interval:PT30S}", initialDelayString = "PT30S")

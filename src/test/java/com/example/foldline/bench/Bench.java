@@ -2,7 +2,7 @@ package com.example.foldline.bench;
 
 import java.util.Arrays;
 
-/** Entry point of the benchmark commands (docs/benchmarks.md): {@code ingest}, {@code metrics}, {@code stats}. */
+/** Entry point of the benchmark commands (docs/benchmarks.md): {@code ingest}, {@code metrics}, {@code imports}, {@code stats}. */
 public final class Bench {
 
     private Bench() {
@@ -14,11 +14,12 @@ public final class Bench {
         switch (name) {
             case "ingest" -> IngestBenchmark.main(rest);
             case "metrics" -> MetricsBenchmark.main(rest);
+            case "imports" -> ImportBenchmark.main(rest);
             case "stats" -> {
                 com.example.foldline.stats.StatsBenchmark.main(rest);
                 com.example.foldline.stats.StatsBenchmarkB.main(rest);
             }
-            default -> throw new IllegalArgumentException("unknown benchmark " + name + " (ingest, metrics, stats)");
+            default -> throw new IllegalArgumentException("unknown benchmark " + name + " (ingest, metrics, imports, stats)");
         }
         System.exit(0);
     }
