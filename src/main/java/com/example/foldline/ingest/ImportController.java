@@ -12,6 +12,7 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.security.Principal;
 import java.util.List;
+import java.util.Locale;
 
 import org.springframework.http.HttpHeaders;
 import org.springframework.http.HttpStatus;
@@ -115,7 +116,7 @@ class ImportController {
                                                      String accept) {
         ImportJobs.Rejections r = imports.rejections(sites.require(siteId), jobId);
         boolean csv = format != null ? format.equalsIgnoreCase("csv")
-                : accept != null && accept.toLowerCase().contains("text/csv");
+                : accept != null && accept.toLowerCase(Locale.ROOT).contains("text/csv");
         String name = "import-" + jobId + "-rejections." + (csv ? "csv" : "ndjson");
         StreamingResponseBody body = out -> {
             if (r.length() <= 0 || !Files.exists(r.file())) {

@@ -83,11 +83,15 @@ class ImportJobRepository {
                 WHERE site_id = ? AND id = ? AND state = 'queued'""", t, t, siteId, id) == 1;
     }
 
-    /** Records one commit's progress; runs in the commit's transaction. Returns whether a cancel was requested. */
+    /**
+     * Records one commit's progress; runs in the commit's transaction. A job queued again while its worker was only
+     * slow is marked reading again. Returns whether a cancel was requested.
+     */
     boolean progress(long siteId, long id, long bytesRead, long linesRead, long stored, long duplicates, long rejected,
                      long rejectionBytes, Instant estimatedFinish, Instant now) {
         jdbc.update("""
-                        UPDATE import_job SET bytes_read = ?, lines_read = ?, stored = stored + ?,
+                        UPDATE import_job SET state = CASE WHEN state = 'queued' THEN 'reading' ELSE state END,
+                                              bytes_read = ?, lines_read = ?, stored = stored + ?,
                                               duplicates = duplicates + ?, rejected = rejected + ?, rejection_bytes = ?,
                                               estimated_finish = ?, heartbeat_at = ?
                         WHERE site_id = ? AND id = ?""", bytesRead, linesRead, stored, duplicates, rejected,
