@@ -2,6 +2,8 @@ package com.example.foldline.alerts;
 
 import java.net.URI;
 import java.time.Instant;
+import java.time.LocalDate;
+import java.time.format.DateTimeParseException;
 import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.LinkedHashMap;
@@ -113,10 +115,11 @@ class AlertRulesController {
 
     @GetMapping("/suggestions")
     @Operation(summary = "Possible jumps in the hourly bounce rate (CUSUM), each with a rule to save",
-            description = "days: 4 to 60 (default 14); segment: device, source, country, region, browser, variant")
+            description = "days: 4 to 60 (default 14); to: last local day (default: up to the newest complete hour); segment: device, source, country, region, browser, variant")
     JumpSuggestions.Answer suggestions(@PathVariable long siteId, HttpServletRequest request) {
         List<FieldError> errors = new ArrayList<>();
         int days = JumpSuggestions.DEFAULT_DAYS;
+        LocalDate until = null;
         Map<String, List<String>> segment = new LinkedHashMap<>();
         for (Map.Entry<String, String[]> p : request.getParameterMap().entrySet()) {
             if (p.getKey().equals("days")) {
@@ -129,10 +132,16 @@ class AlertRulesController {
                 } catch (NumberFormatException e) {
                     errors.add(new FieldError("days", "must be an integer, got '" + p.getValue()[0] + "'"));
                 }
+            } else if (p.getKey().equals("to")) {
+                try {
+                    until = LocalDate.parse(p.getValue()[0]);
+                } catch (DateTimeParseException e) {
+                    errors.add(new FieldError("to", "must be a date as YYYY-MM-DD, got '" + p.getValue()[0] + "'"));
+                }
             } else if (SegmentSpec.DIMENSIONS.containsKey(p.getKey())) {
                 segment.put(p.getKey(), Arrays.asList(p.getValue()));
             } else {
-                errors.add(new FieldError(p.getKey(), "unknown parameter; accepted: days, device, source, country, "
+                errors.add(new FieldError(p.getKey(), "unknown parameter; accepted: days, to, device, source, country, "
                         + "region, browser, variant"));
             }
         }
@@ -140,6 +149,6 @@ class AlertRulesController {
         if (!errors.isEmpty()) {
             throw new BadRequestException(errors);
         }
-        return suggestions.suggest(siteId, checked, days);
+        return suggestions.suggest(siteId, checked, days, until);
     }
 }

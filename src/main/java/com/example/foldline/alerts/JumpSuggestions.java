@@ -3,6 +3,7 @@ package com.example.foldline.alerts;
 import java.time.Clock;
 import java.time.Duration;
 import java.time.Instant;
+import java.time.LocalDate;
 import java.time.LocalDateTime;
 import java.util.ArrayList;
 import java.util.List;
@@ -58,11 +59,16 @@ public class JumpSuggestions {
         this.clock = clock;
     }
 
-    /** Suggestions for the last {@code days} days (the first half, at most 7 days, is the reference). */
-    public Answer suggest(long siteId, Map<String, List<String>> segment, int days) {
+    /**
+     * Suggestions for the {@code days} days up to the end of local day {@code until} (null: up to the newest complete
+     * hour); the first half, at most 7 days, is the reference.
+     */
+    public Answer suggest(long siteId, Map<String, List<String>> segment, int days, LocalDate until) {
         Site site = sites.require(siteId);
         Duration settle = Duration.ofMinutes(site.sessionTimeoutMinutes()).plus(properties.settleMargin());
-        LocalDateTime to = Windows.latestEnd(clock.instant(), site.timezone(), settle);
+        LocalDateTime latest = Windows.latestEnd(clock.instant(), site.timezone(), settle);
+        LocalDateTime end = until == null ? latest : until.plusDays(1).atStartOfDay();
+        LocalDateTime to = end.isBefore(latest) ? end : latest;
         LocalDateTime from = to.minusDays(days);
         int referenceDays = Math.min(7, days / 2);
         LocalDateTime monitoredFrom = from.plusDays(referenceDays);
