@@ -127,7 +127,7 @@ public class AlertRules {
         RuleDefinition d = RuleDefinition.from(request, errors);
         List<Long> hooks = request == null || request.webhookIds() == null ? List.of()
                 : request.webhookIds().stream().distinct().toList();
-        if (hooks.contains(null)) {
+        if (hooks.stream().anyMatch(java.util.Objects::isNull)) {
             errors.add(new FieldError("webhookIds", "must not contain null"));
         } else {
             List<Long> known = webhooks.existing(siteId, hooks);

@@ -8,6 +8,7 @@ import java.net.UnknownHostException;
 import java.util.List;
 import java.util.Locale;
 
+import org.springframework.beans.factory.annotation.Autowired;
 import org.springframework.stereotype.Component;
 
 /**
@@ -23,6 +24,7 @@ class WebhookGuard {
     private final List<String> allowedHosts;
     private final boolean allowPrivate;
 
+    @Autowired
     WebhookGuard(AlertProperties properties) {
         this(properties.webhooks().allowedHosts(), properties.webhooks().allowPrivateNetworks());
     }
