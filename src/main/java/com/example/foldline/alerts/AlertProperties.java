@@ -25,6 +25,8 @@ import jakarta.validation.constraints.NotNull;
  *                         evaluated only when its end lies at least timeout + margin in the past, so that its
  *                         sessions have closed and reached the rollups
  * @param maxCatchUp       after downtime, windows older than this are not evaluated any more
+ * @param rollupCacheTtl   how long the hourly totals of settled days (ended over a day ago) are reused between
+ *                         evaluator runs; PT0S reads everything on every run
  * @param publicUrl        the address people open Foldline at, used for links in notifications
  * @param webhooks         webhook delivery and its guard against misuse
  * @param mail             e-mail delivery (needs spring.mail.host)
@@ -36,6 +38,7 @@ record AlertProperties(@DefaultValue("true") boolean schedulerEnabled,
                        @DefaultValue("PT10S") @NotNull Duration dispatchInterval,
                        @DefaultValue("PT15M") @NotNull Duration settleMargin,
                        @DefaultValue("P2D") @NotNull Duration maxCatchUp,
+                       @DefaultValue("PT1H") @NotNull Duration rollupCacheTtl,
                        @DefaultValue("http://localhost:8080") @NotNull URI publicUrl,
                        @DefaultValue @Valid @NotNull Webhooks webhooks,
                        @DefaultValue @Valid @NotNull Mail mail) {
@@ -45,6 +48,7 @@ record AlertProperties(@DefaultValue("true") boolean schedulerEnabled,
         require(!dispatchInterval.isNegative() && !dispatchInterval.isZero(), "dispatch-interval", dispatchInterval);
         require(!settleMargin.isNegative(), "settle-margin", settleMargin);
         require(maxCatchUp.toHours() >= 1 && maxCatchUp.toDays() <= 31, "max-catch-up", maxCatchUp);
+        require(!rollupCacheTtl.isNegative() && rollupCacheTtl.toDays() <= 1, "rollup-cache-ttl", rollupCacheTtl);
         String scheme = publicUrl.getScheme() == null ? "" : publicUrl.getScheme().toLowerCase(Locale.ROOT);
         require(scheme.equals("http") || scheme.equals("https"), "public-url", publicUrl);
     }

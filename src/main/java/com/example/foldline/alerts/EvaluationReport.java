@@ -10,7 +10,8 @@ package com.example.foldline.alerts;
  * @param notifications new notifications (a window already notified is not notified again)
  * @param failed        rules whose evaluation failed (logged; retried on the next run)
  * @param queries       rollup queries made
+ * @param readMillis    time spent in them
  */
 public record EvaluationReport(int rules, int skipped, int windows, int transitions, int notifications, int failed,
-                               int queries) {
+                               int queries, long readMillis) {
 }

@@ -45,7 +45,7 @@ class Notifier {
                     payloads.title(site, rule, t.notice()), payloads.json(site, rule, t, now), muted, now);
             created = id.isPresent();
             if (created && !muted) {
-                for (long webhook : rule.webhookIds()) {
+                for (long webhook : rules.webhookIds(rule.id())) {
                     notifications.insertDelivery(id.get(), "webhook", webhook, null, "webhook:" + webhook, now);
                 }
                 if (mail.available()) {

@@ -3,6 +3,7 @@ package com.example.foldline.alerts;
 import java.sql.ResultSet;
 import java.sql.SQLException;
 import java.sql.Timestamp;
+import java.sql.Types;
 import java.time.Duration;
 import java.time.Instant;
 import java.time.LocalDateTime;
@@ -13,6 +14,8 @@ import java.util.List;
 import java.util.Map;
 import java.util.Optional;
 
+import org.springframework.jdbc.core.namedparam.MapSqlParameterSource;
+import org.springframework.jdbc.core.namedparam.NamedParameterJdbcOperations;
 import org.springframework.jdbc.core.simple.JdbcClient;
 import org.springframework.jdbc.support.GeneratedKeyHolder;
 import org.springframework.stereotype.Repository;
@@ -46,10 +49,12 @@ class RuleRepository {
     }
 
     private final JdbcClient jdbc;
+    private final NamedParameterJdbcOperations batchJdbc;
     private final ObjectMapper json;
 
-    RuleRepository(JdbcClient jdbc, ObjectMapper json) {
+    RuleRepository(JdbcClient jdbc, NamedParameterJdbcOperations batchJdbc, ObjectMapper json) {
         this.jdbc = jdbc;
+        this.batchJdbc = batchJdbc;
         this.json = json;
     }
 
@@ -126,18 +131,24 @@ class RuleRepository {
                 .param("site", siteId).query(this::map).list());
     }
 
-    /** Ids of the rules to evaluate, oldest first. */
-    List<Long> enabledIds() {
-        return jdbc.sql("SELECT id FROM alert_rule WHERE enabled = TRUE ORDER BY id").query(Long.class).list();
+    /** The enabled rules without locking them: a snapshot to plan a run by (webhooks not loaded). */
+    List<Stored> enabledSnapshot() {
+        return jdbc.sql("SELECT " + COLUMNS + " FROM alert_rule WHERE enabled = TRUE ORDER BY id").query(this::map)
+                .list();
+    }
+
+    List<Long> webhookIds(long ruleId) {
+        return jdbc.sql("SELECT webhook_id FROM alert_rule_webhook WHERE rule_id = :id ORDER BY webhook_id")
+                .param("id", ruleId).query(Long.class).list();
     }
 
     /**
-     * Locks an enabled rule for evaluation until the transaction ends, or returns empty when another evaluator holds
-     * it (SKIP LOCKED: the other one is already doing this work) or the rule was paused or deleted meanwhile.
+     * Locks enabled rules for evaluation until the transaction ends; leaves out those another evaluator holds (SKIP LOCKED: the other one is already doing this work) or the rule was paused or deleted meanwhile.
+     * Its webhooks are not loaded ({@link #webhookIds} when a notice needs them).
      */
-    Optional<Stored> lockForEvaluation(long id) {
-        return withWebhooks(jdbc.sql("SELECT " + COLUMNS + " FROM alert_rule WHERE id = :id AND enabled = TRUE "
-                + "FOR UPDATE SKIP LOCKED").param("id", id).query(this::map).list()).stream().findFirst();
+    List<Stored> lockForEvaluation(List<Long> ids) {
+        return jdbc.sql("SELECT " + COLUMNS + " FROM alert_rule WHERE id IN (:ids) AND enabled = TRUE "
+                + "ORDER BY id FOR UPDATE SKIP LOCKED").param("ids", ids).query(this::map).list();
     }
 
     /** Locks a rule for a change of state by a person, waiting for a running evaluation of it to finish. */
@@ -146,23 +157,43 @@ class RuleRepository {
                 + "FOR UPDATE").param("site", siteId).param("id", id).query(this::map).list()).stream().findFirst();
     }
 
+    private static final String SAVE_STATUS = """
+            UPDATE alert_rule SET enabled = :enabled, state = :state, state_since = :since,
+                   last_window_end = :lastWindow, last_breach_end = :lastBreach,
+                   last_raise_notice = :lastNotice, episode_notified = :notified,
+                   last_evaluation = COALESCE(:evaluation, last_evaluation),
+                   last_evaluated_at = COALESCE(:evaluatedAt, last_evaluated_at), updated_at = :now
+            WHERE id = :id""";
+
     void saveStatus(AlertRule rule, Evaluation last, Instant evaluatedAt, Instant now) {
+        jdbc.sql(SAVE_STATUS).paramSource(statusParams(rule, last, evaluatedAt, now)).update();
+    }
+
+    /** Saves the state of several rules judged at {@code now}, with each one's newest evaluation, in one batch. */
+    void saveStatuses(List<AlertRule> judged, List<Evaluation> last, Instant now) {
+        if (judged.isEmpty()) {
+            return;
+        }
+        MapSqlParameterSource[] batch = new MapSqlParameterSource[judged.size()];
+        for (int i = 0; i < batch.length; i++) {
+            batch[i] = statusParams(judged.get(i), last.get(i), now, now);
+        }
+        batchJdbc.batchUpdate(SAVE_STATUS, batch);
+    }
+
+    private MapSqlParameterSource statusParams(AlertRule rule, Evaluation last, Instant evaluatedAt, Instant now) {
         Status s = rule.status();
-        jdbc.sql("""
-                        UPDATE alert_rule SET enabled = :enabled, state = :state, state_since = :since,
-                               last_window_end = :lastWindow, last_breach_end = :lastBreach,
-                               last_raise_notice = :lastNotice, episode_notified = :notified,
-                               last_evaluation = COALESCE(:evaluation, last_evaluation),
-                               last_evaluated_at = COALESCE(:evaluatedAt, last_evaluated_at), updated_at = :now
-                        WHERE id = :id""")
-                .param("id", rule.id()).param("enabled", rule.enabled()).param("state", s.state().name())
-                .param("since", s.stateSince()).param("lastWindow", s.lastWindowEnd())
-                .param("lastBreach", s.lastBreachEnd()).param("lastNotice", s.lastRaiseNotice())
-                .param("notified", s.episodeNotified())
-                .param("evaluation", last == null ? null : json.writeValueAsString(last))
-                .param("evaluatedAt", evaluatedAt == null ? null : Timestamp.from(evaluatedAt))
-                .param("now", Timestamp.from(now))
-                .update();
+        return new MapSqlParameterSource("id", rule.id()).addValue("enabled", rule.enabled())
+                .addValue("state", s.state().name())
+                .addValue("since", s.stateSince(), Types.TIMESTAMP)
+                .addValue("lastWindow", s.lastWindowEnd(), Types.TIMESTAMP)
+                .addValue("lastBreach", s.lastBreachEnd(), Types.TIMESTAMP)
+                .addValue("lastNotice", s.lastRaiseNotice(), Types.TIMESTAMP)
+                .addValue("notified", s.episodeNotified())
+                .addValue("evaluation", last == null ? null : json.writeValueAsString(last), Types.VARCHAR)
+                .addValue("evaluatedAt", evaluatedAt == null ? null : Timestamp.from(evaluatedAt),
+                        Types.TIMESTAMP)
+                .addValue("now", Timestamp.from(now));
     }
 
     void setMutedUntil(long id, Instant until, Instant now) {
