@@ -37,8 +37,12 @@ class AlertInbox {
         return notifications.unread(siteId);
     }
 
-    Unread unread() {
-        Map<Long, Long> bySite = notifications.unreadBySite();
+    /** Unread notifications of the given sites (null: every site). */
+    Unread unread(java.util.Set<Long> visibleSites) {
+        Map<Long, Long> bySite = new java.util.TreeMap<>(notifications.unreadBySite());
+        if (visibleSites != null) {
+            bySite.keySet().retainAll(visibleSites);
+        }
         return new Unread(bySite.values().stream().mapToLong(Long::longValue).sum(), bySite);
     }
 

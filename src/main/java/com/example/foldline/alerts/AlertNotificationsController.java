@@ -4,11 +4,14 @@ import java.security.Principal;
 import java.util.List;
 import java.util.Map;
 
+import org.springframework.security.core.Authentication;
 import org.springframework.web.bind.annotation.GetMapping;
 import org.springframework.web.bind.annotation.PathVariable;
 import org.springframework.web.bind.annotation.PostMapping;
 import org.springframework.web.bind.annotation.RequestParam;
 import org.springframework.web.bind.annotation.RestController;
+
+import com.example.foldline.accounts.SiteAccess;
 
 import io.swagger.v3.oas.annotations.Operation;
 import io.swagger.v3.oas.annotations.tags.Tag;
@@ -18,15 +21,17 @@ import io.swagger.v3.oas.annotations.tags.Tag;
 class AlertNotificationsController {
 
     private final AlertInbox inbox;
+    private final SiteAccess access;
 
-    AlertNotificationsController(AlertInbox inbox) {
+    AlertNotificationsController(AlertInbox inbox, SiteAccess access) {
         this.inbox = inbox;
+        this.access = access;
     }
 
     @GetMapping("/api/v1/alerts/unread")
-    @Operation(summary = "Unread alert notifications over all sites, and per site (for the bell)")
-    AlertInbox.Unread unreadEverywhere() {
-        return inbox.unread();
+    @Operation(summary = "Unread alert notifications over the sites the caller may see, and per site (for the bell)")
+    AlertInbox.Unread unreadEverywhere(Authentication auth) {
+        return inbox.unread(access.visibleSiteIds(auth));
     }
 
     @GetMapping("/api/v1/sites/{siteId}/alerts/notifications")

@@ -32,6 +32,11 @@ import tools.jackson.databind.JsonNode;
  */
 abstract class AlertsApiTests extends AlertsContract {
 
+    @org.springframework.beans.factory.annotation.Autowired
+    com.example.foldline.accounts.Accounts accounts;
+    @org.springframework.beans.factory.annotation.Autowired
+    com.example.foldline.accounts.SiteAccess access;
+
     /** A request the test server received. */
     record Received(String path, byte[] body, String signature, String event, String delivery) {
     }
@@ -202,6 +207,27 @@ abstract class AlertsApiTests extends AlertsContract {
             assertThat(log.get(0).get("error").stringValue()).contains("redirect to another host");
             assertThat(log.get(0).get("status").stringValue()).isEqualTo("failed");
         }
+    }
+
+    @Test
+    void siteRolesApply() {
+        String name = "editor" + System.nanoTime();
+        accounts.create(name, "editor-password-1", false);
+        access.grantUser(jump.id(), name, com.example.foldline.accounts.SiteRole.EDITOR);
+        var editor = httpBasic(name, "editor-password-1");
+        assertThat(mvc.post().uri("/api/v1/sites/{id}/alerts/rules", jump.id()).with(editor)
+                .contentType(MediaType.APPLICATION_JSON)
+                .content("{\"name\": \"x\", \"condition\": {\"type\": \"above\", \"threshold\": 0.9}}"))
+                .hasStatus(HttpStatus.CREATED);
+        // webhooks make the server send requests: site admins only
+        assertThat(mvc.post().uri("/api/v1/sites/{id}/alerts/webhooks", jump.id()).with(editor)
+                .contentType(MediaType.APPLICATION_JSON).content("{\"name\":\"x\",\"url\":\"http://127.0.0.1/\"}"))
+                .hasStatus(HttpStatus.FORBIDDEN);
+        // no role on the flat site: nothing there, and the bell does not count it
+        assertThat(mvc.get().uri("/api/v1/sites/{id}/alerts/rules", flat.id()).with(editor))
+                .hasStatus(HttpStatus.FORBIDDEN);
+        assertThat(mvc.get().uri("/api/v1/alerts/unread").with(editor)).hasStatusOk().bodyJson()
+                .extractingPath("$.total").isEqualTo(0);
     }
 
     @Test
