@@ -2,6 +2,7 @@ package com.example.foldline.alerts;
 
 import java.net.URI;
 import java.time.Instant;
+import java.time.LocalDate;
 import java.time.LocalDateTime;
 import java.util.LinkedHashMap;
 import java.util.Locale;
@@ -42,12 +43,16 @@ class Payloads {
         return (notice == Notice.RAISED ? "Raised: " : "Cleared: ") + rule.definition().name() + " on " + site.name();
     }
 
-    /** The matching metrics view: the window's days and the baseline days, with the rule's segment. */
+    /**
+     * The matching view of the UI (docs/ui.md: the whole view state is in the query string): the site's health
+     * screen charting the rule's metric hourly over the window's day and the six days before (the UI offers hourly
+     * grain up to 7 days), with the rule's segment.
+     */
     String link(Site site, RuleDefinition rule, LocalDateTime windowEnd) {
         String query = SegmentSpec.query(rule.segment());
-        return publicUrl + "/#/sites/" + site.id() + "/health?metric=" + rule.metric().apiName()
-                + "&from=" + Windows.firstDay(rule, windowEnd) + "&to=" + Windows.lastDay(windowEnd) + "&grain=hour"
-                + (query.isEmpty() ? "" : "&" + query);
+        LocalDate to = Windows.lastDay(windowEnd);
+        return publicUrl + "/?screen=health&site=" + site.id() + "&from=" + to.minusDays(6) + "&to=" + to
+                + (query.isEmpty() ? "" : "&" + query) + "&metric=" + rule.metric().apiName() + "&grain=hour";
     }
 
     String json(Site site, AlertRule rule, Transition t, Instant now) {

@@ -20,7 +20,6 @@ import org.springframework.http.MediaType;
 import org.springframework.test.web.servlet.assertj.MvcTestResult;
 
 import com.icegreen.greenmail.util.GreenMail;
-import com.icegreen.greenmail.util.GreenMailUtil;
 import com.sun.net.httpserver.HttpServer;
 
 import jakarta.mail.internet.MimeMessage;
@@ -178,7 +177,7 @@ abstract class AlertsApiTests extends AlertsContract {
             assertThat(payload.get("rule").get("name").stringValue()).isEqualTo("Signed");
             assertThat(payload.get("test").get("method").stringValue()).contains("z test");
             assertThat(payload.get("baseline").get("sessions").asLong()).isEqualTo(1400);
-            assertThat(payload.get("link").stringValue()).contains("/#/sites/" + jump.id() + "/health?");
+            assertThat(payload.get("link").stringValue()).contains("/?screen=health&site=" + jump.id() + "&");
 
             JsonNode log = body(call(mvc.get().uri("/api/v1/sites/{id}/alerts/deliveries?webhookId={w}", jump.id(),
                     hook.webhook().id())));
@@ -254,8 +253,8 @@ abstract class AlertsApiTests extends AlertsContract {
         MimeMessage message = smtp.getReceivedMessages()[0];
         assertThat(message.getAllRecipients()[0].toString()).isEqualTo("desk@gazette.example");
         assertThat(message.getSubject()).isEqualTo("[Foldline] Raised: Mailed on Harbour Gazette");
-        String text = GreenMailUtil.getBody(message);
-        assertThat(text).contains("two-proportion z test").contains("/#/sites/" + jump.id() + "/health?");
+        String text = (String) message.getContent();   // decoded (the wire form is quoted-printable)
+        assertThat(text).contains("two-proportion z test").contains("/?screen=health&site=" + jump.id() + "&");
     }
 
     @Test

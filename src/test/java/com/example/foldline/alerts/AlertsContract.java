@@ -188,8 +188,8 @@ abstract class AlertsContract {
         assertThat(payload.get("window").get("startUtc").stringValue()).isEqualTo("2026-11-09T11:00:00Z");
         assertThat(payload.get("baseline").get("observed").asDouble()).isEqualTo(0.4);
         assertThat(payload.get("test").get("passed").asBoolean()).isTrue();
-        assertThat(payload.get("link").stringValue()).isEqualTo("http://localhost:8080/#/sites/" + jump.id()
-                + "/health?metric=bounceRate&from=2026-11-02&to=2026-11-09&grain=hour");
+        assertThat(payload.get("link").stringValue()).isEqualTo("http://localhost:8080/?screen=health&site="
+                + jump.id() + "&from=2026-11-03&to=2026-11-09&metric=bounceRate&grain=hour");
     }
 
     @Test
