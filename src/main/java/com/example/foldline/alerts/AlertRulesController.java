@@ -19,6 +19,7 @@ import org.springframework.web.bind.annotation.PostMapping;
 import org.springframework.web.bind.annotation.PutMapping;
 import org.springframework.web.bind.annotation.RequestBody;
 import org.springframework.web.bind.annotation.RequestMapping;
+import org.springframework.web.bind.annotation.RequestMethod;
 import org.springframework.web.bind.annotation.RequestParam;
 import org.springframework.web.bind.annotation.ResponseStatus;
 import org.springframework.web.bind.annotation.RestController;
@@ -88,9 +89,10 @@ class AlertRulesController {
         return rules.resume(siteId, ruleId);
     }
 
-    @PutMapping("/rules/{ruleId}/mute")
+    @RequestMapping(path = "/rules/{ruleId}/mute", method = {RequestMethod.PUT, RequestMethod.POST})
     @Operation(summary = "Mute a rule until a time", description = "Its notifications stay in the app, unread count "
-            + "and outward deliveries skip them; body {\"until\": \"2026-11-10T08:00:00Z\"}")
+            + "and outward deliveries skip them; body {\"until\": \"2026-11-10T08:00:00Z\"} (PUT, or POST for clients "
+            + "without PUT)")
     RuleView mute(@PathVariable long siteId, @PathVariable long ruleId, @RequestBody MuteRequest request) {
         return rules.mute(siteId, ruleId, request == null ? null : request.until());
     }
