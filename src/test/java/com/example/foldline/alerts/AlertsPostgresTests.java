@@ -2,7 +2,6 @@ package com.example.foldline.alerts;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
-import java.io.IOException;
 import java.net.InetSocketAddress;
 import java.time.Clock;
 import java.time.Instant;
@@ -23,11 +22,8 @@ import org.springframework.boot.webmvc.test.autoconfigure.AutoConfigureMockMvc;
 import org.springframework.test.context.TestPropertySource;
 import org.springframework.transaction.support.TransactionTemplate;
 
-import com.example.foldline.sites.Sites;
 import com.example.foldline.support.PostgresAvailable;
 import com.sun.net.httpserver.HttpServer;
-
-import tools.jackson.databind.ObjectMapper;
 
 /**
  * Issue #7 on PostgreSQL: the contract, and two evaluator instances (and two dispatchers) sharing one database that
