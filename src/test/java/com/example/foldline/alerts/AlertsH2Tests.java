@@ -9,7 +9,8 @@ import org.springframework.test.context.TestPropertySource;
 @SpringBootTest
 @AutoConfigureMockMvc
 @ActiveProfiles("test")
+// the tests run the sessionizer themselves; a scheduled run would contend for the site's lock while they seed
 @TestPropertySource(properties = {"foldline.alerts.webhooks.allowed-hosts=127.0.0.1,localhost",
-        "foldline.alerts.webhooks.allow-private-networks=true"})
+        "foldline.alerts.webhooks.allow-private-networks=true", "foldline.sessions.enabled=false"})
 class AlertsH2Tests extends AlertsApiTests {
 }

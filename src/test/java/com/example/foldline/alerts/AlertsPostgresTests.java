@@ -32,8 +32,9 @@ import com.sun.net.httpserver.HttpServer;
 @SpringBootTest
 @AutoConfigureMockMvc
 @PostgresAvailable
+// the tests run the sessionizer themselves; a scheduled run would contend for the site's lock while they seed
 @TestPropertySource(properties = {"foldline.alerts.webhooks.allowed-hosts=127.0.0.1,localhost",
-        "foldline.alerts.webhooks.allow-private-networks=true"})
+        "foldline.alerts.webhooks.allow-private-networks=true", "foldline.sessions.enabled=false"})
 class AlertsPostgresTests extends AlertsContract {
 
     private static final int RULES = 30;
