@@ -39,9 +39,10 @@ import com.example.foldline.sites.Sites;
  * the defaults 20 sites × 35 days).
  * Each timed run moves the clock one hour on, so every rule has exactly one new window to judge.
  *
- * <p>{@code --rules N --sites S --days D --runs R --sessions-per-hour H}; {@code --pg} uses PostgreSQL at
- * BENCH_PG_URL (default jdbc:postgresql://127.0.0.1:5432/foldline_bench, user/password foldline) instead of an H2
- * file under target/.
+ * <p>{@code --rules N --sites S --days D --runs R --sessions-per-hour H}; {@code --no-keep} reads every baseline day
+ * on every run; {@code --pg} uses PostgreSQL at BENCH_PG_URL (default
+ * jdbc:postgresql://127.0.0.1:5432/foldline_alerts_bench, user/password foldline, a database of its own) instead of
+ * an H2 file under target/.
  */
 public final class AlertsBenchmark {
 
@@ -65,7 +66,7 @@ public final class AlertsBenchmark {
         boolean keep = !Arrays.asList(args).contains("--no-keep");
         String url;
         if (pg) {
-            url = System.getenv().getOrDefault("BENCH_PG_URL", "jdbc:postgresql://127.0.0.1:5432/foldline_bench");
+            url = System.getenv().getOrDefault("BENCH_PG_URL", "jdbc:postgresql://127.0.0.1:5432/foldline_alerts_bench");
         } else {
             Path dir = Path.of("target", "bench-alerts");
             if (Files.exists(dir)) {
