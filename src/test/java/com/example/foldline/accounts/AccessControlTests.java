@@ -116,7 +116,9 @@ class AccessControlTests {
         if (p.startsWith("/api/v1/sites/{siteId}")) {
             return "site role";
         }
+        // the alert bell lists only the caller's visible sites (AlertsH2Tests checks it)
         if (p.equals("/api/v1/sites") || p.startsWith("/api/v1/me") || p.startsWith("/api/v1/fits/")
+                || p.equals("/api/v1/alerts/unread")
                 || p.equals("/v/{slug}")) {
             return "signed-in user";
         }
