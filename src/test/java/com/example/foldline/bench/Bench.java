@@ -15,6 +15,7 @@ public final class Bench {
             case "ingest" -> IngestBenchmark.main(rest);
             case "metrics" -> MetricsBenchmark.main(rest);
             case "imports" -> ImportBenchmark.main(rest);
+            case "alerts" -> AlertsBenchmark.main(rest);
             case "stats" -> {
                 com.example.foldline.stats.StatsBenchmark.main(rest);
                 com.example.foldline.stats.StatsBenchmarkB.main(rest);

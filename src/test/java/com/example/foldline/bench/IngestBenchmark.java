@@ -111,6 +111,12 @@ final class IngestBenchmark {
             httpRate = accepted.get() / seconds;
             System.out.printf("HTTP ingest (2 clients, NDJSON): %,d accepted in %.1f s = %,.0f events/s%n",
                     accepted.get(), seconds, httpRate);
+            // the sessionizer on the same pageviews (issue #3 asks for at least 100,000 pageviews/s)
+            long s0 = System.nanoTime();
+            var report = app.getBean(com.example.foldline.sessions.Sessionizer.class).run(site.id());
+            double sessionizerSeconds = (System.nanoTime() - s0) / 1e9;
+            System.out.printf("sessionizer: %,d pageviews into %,d sessions in %.1f s = %,.0f pageviews/s%n",
+                    accepted.get(), report.sessionsWritten(), sessionizerSeconds, accepted.get() / sessionizerSeconds);
         }
 
         Path refDir = Files.createTempDirectory("foldline-bench-ref");
