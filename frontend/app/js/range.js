@@ -2,13 +2,8 @@
 
 const DAY = 86_400_000;
 
-export const PRESETS = [
-  { id: '7d', label: 'Last 7 days', days: 7 },
-  { id: '28d', label: 'Last 28 days', days: 28 },
-  { id: '90d', label: 'Last 90 days', days: 90 },
-  { id: 'month', label: 'This month' },
-  { id: 'last-month', label: 'Last month' },
-];
+export const PRESETS = [['7d', 'Last 7 days', 7], ['28d', 'Last 28 days', 28], ['90d', 'Last 90 days', 90],
+  ['month', 'This month'], ['last-month', 'Last month']].map(([id, label, days]) => ({ id, label, days }));
 
 export function isIsoDate(s) {
   if (typeof s !== 'string' || !/^\d{4}-\d{2}-\d{2}$/.test(s)) return false;
@@ -20,12 +15,10 @@ export function addDays(iso, n) {
   return new Date(Date.parse(iso + 'T00:00:00Z') + n * DAY).toISOString().slice(0, 10);
 }
 
-/** Days from `from` to `to`, both included. */
 export function daysIn(from, to) {
   return Math.round((Date.parse(to + 'T00:00:00Z') - Date.parse(from + 'T00:00:00Z')) / DAY) + 1;
 }
 
-/** Today's date in an IANA time zone (the site's day, as the API counts days). */
 export function todayIn(timeZone, now = new Date()) {
   const parts = new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' })
     .formatToParts(now);
@@ -43,15 +36,6 @@ export function presetRange(id, today) {
   return { from: end.slice(0, 8) + '01', to: end };
 }
 
-/** The preset whose range equals from..to today, or null. */
-export function matchPreset(from, to, today) {
-  return PRESETS.find((p) => {
-    const r = presetRange(p.id, today);
-    return r.from === from && r.to === to;
-  })?.id ?? null;
-}
-
-/** The period of the same length just before from..to (what compare=previous compares with). */
 export function previousRange(from, to) {
   const n = daysIn(from, to);
   return { from: addDays(from, -n), to: addDays(from, -1) };

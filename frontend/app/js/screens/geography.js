@@ -2,85 +2,68 @@
 
 import { h, select } from '../dom.js';
 import { heading, showScope, load, emptyMessage } from '../screen.js';
-import { COLORS, alpha } from '../charts.js';
+import { COLORS } from '../charts.js';
 import { countryName } from '../format.js';
 
 export const id = 'geography';
 export const title = 'Geography';
 
-const CHART_ROWS = 15;
-
 export async function render(ctx) {
   const { fmt, state, locale } = ctx;
   const { by, sort, order } = state.extras;
-  const scope = heading(ctx, 'Geography', 'Where readers come from and what their visits earn compared with the '
-    + 'site as a whole (1.00× = site average).');
-  const tools = [
-    select('Group by', 'by', [{ value: 'country', label: 'Country' }, { value: 'region', label: 'Region' }], by,
-      (e) => ctx.navigate({ extras: { by: e.target.value } }), 'geo-by'),
-    select('Sort by', 'sort', [{ value: 'sessions', label: 'Sessions' }, { value: 'pageRpm', label: 'Page RPM' },
-      { value: 'sessionRpm', label: 'Session RPM' }], sort, (e) => ctx.navigate({ extras: { sort: e.target.value } }),
-    'geo-sort'),
-    h('button', { type: 'button', class: 'tool', id: 'geo-order', text: order === 'desc' ? 'Highest first' : 'Lowest first',
-    onclick: () => ctx.navigate({ extras: { order: order === 'desc' ? 'asc' : 'desc' } }) }),
-  ];
-  const place = (r) => (by !== 'region' ? countryName(locale, r.country)
-    : r.region ? `${r.region}, ${countryName(locale, r.country)}` : `${countryName(locale, r.country)}, no region`);
-  const columns = [
-    { key: 'country', label: by === 'region' ? 'Region' : 'Country', format: (_v, r) => place(r),
-      csv: (r) => (by === 'region' ? r.region : r.country) },
-    ...(by === 'region' ? [{ key: 'countryCode', label: 'Country', text: true, csv: (r) => r.country, format: (_v, r) => r.country }] : []),
-    { key: 'sessions', label: 'Sessions', format: fmt.count },
-    { key: 'share', label: 'Share of sessions', format: (v) => fmt.percent(v) },
-    { key: 'pageviews', label: 'Pageviews', format: fmt.count },
-    { key: 'pageRpm', label: `Page RPM (${fmt.currency})`, format: fmt.money },
-    { key: 'pageRpmVsSite', label: 'Page RPM vs site', format: fmt.times },
-    { key: 'sessionRpm', label: `Session RPM (${fmt.currency})`, format: fmt.money },
-    { key: 'sessionRpmVsSite', label: 'Session RPM vs site', format: fmt.times },
-  ];
-  if (state.compare) columns.push({ key: 'previous', label: `Session RPM, previous period (${fmt.currency})`, format: fmt.money });
-  const panel = ctx.panel({ id: 'geo', title: `Page and session RPM by ${by}`, tools, columns,
-    caption: `The ${CHART_ROWS} first ${by === 'region' ? 'regions' : 'countries'} in the chosen order; the table `
-      + 'lists all. Dashed lines are the site averages.' });
+  const regions = by === 'region';
+  const go = (name) => (e) => ctx.navigate({ extras: { [name]: e.target.value } });
+  const scope = heading(ctx, 'Geography', 'Where readers come from and what their visits earn against the site '
+    + 'average (1.00×).');
+  const country = (r) => countryName(locale, r.country);
+  const place = (r) => (!regions ? country(r) : r.region ? `${r.region}, ${country(r)}` : `${country(r)}, no region`);
+  const panel = ctx.panel({ id: 'geo', title: `Page and session RPM by ${by}`,
+    caption: 'The first 15 in this order (the table lists all); dashed lines: the site averages.',
+    tools: [
+      select('Group by', 'by', [{ value: 'country', label: 'Country' }, { value: 'region', label: 'Region' }], by,
+        go('by'), 'geo-by'),
+      select('Sort by', 'sort', [{ value: 'sessions', label: 'Sessions' }, { value: 'pageRpm', label: 'Page RPM' },
+        { value: 'sessionRpm', label: 'Session RPM' }], sort, go('sort'), 'geo-sort'),
+      h('button.tool#geo-order', { text: order === 'desc' ? 'Highest first' : 'Lowest first',
+        onclick: () => ctx.navigate({ extras: { order: order === 'desc' ? 'asc' : 'desc' } }) }),
+    ],
+    columns: [['country', regions ? 'Region' : 'Country', (_v, r) => place(r), { csv: (r) => r[by] }],
+      ...(regions ? [['country', 'Country', null, { text: true }]] : []),
+      ['sessions', 'Sessions', 'count'], ['share', 'Share of sessions', '%'], ['pageviews', 'Pageviews', 'count'],
+      ['pageRpm', 'Page RPM', 'money'], ['pageRpmVsSite', 'Page RPM vs site', 'x'],
+      ['sessionRpm', 'Session RPM', 'money'], ['sessionRpmVsSite', 'Session RPM vs site', 'x'],
+      ...(state.compare ? [['previous', 'Session RPM, previous period', 'money']] : [])] });
   ctx.main.append(panel.el);
   const loaded = await load(ctx, 'geography', { by, sort, order }, [panel], { by });
   if (!loaded) return;
   const [answer, before] = loaded;
   showScope(ctx, scope, answer.scope, before?.scope);
   const rows = answer.rows;
-  if (!rows.length) {
-    panel.empty(emptyMessage('sessions with a known country', null));
-    return;
-  }
-  const key = (r) => `${r.country}|${r.region}`;
+  if (!rows.length) return panel.empty(emptyMessage('sessions with a known country'));
+  const key = (r) => r.country + r.region;
   const prev = new Map(before?.rows.map((r) => [key(r), r.sessionRpm]));
   for (const r of rows) r.previous = prev.get(key(r)) ?? null;
-  const shown = rows.slice(0, CHART_ROWS);
-  panel.el.querySelector('.chart-box').classList.add(shown.length <= 6 ? 'chart-box' : 'size-l');
-  const site = answer.site;
+  const shown = rows.slice(0, 15);
+  panel.el.querySelector('.chart-box').style.height = Math.max(340, 60 + 30 * shown.length) + 'px';
+  const { site } = answer;
+  const bars = (label, k, color) => ({ label, data: shown.map((r) => r[k]), backgroundColor: color + 'd9' });
   panel.show(rows, {
     type: 'bar',
-    data: {
-      labels: shown.map((r) => `${place(r)} · ${fmt.percent(r.share, 0)}`),
-      datasets: [
-        { label: 'Page RPM', data: shown.map((r) => r.pageRpm), backgroundColor: alpha(COLORS.sky, 0.85) },
-        { label: 'Session RPM', data: shown.map((r) => r.sessionRpm), backgroundColor: alpha(COLORS.blue, 0.85) },
-      ],
-    },
+    data: { labels: shown.map((r) => `${place(r)} · ${fmt.percent(r.share, 0)}`),
+      datasets: [bars('Page RPM', 'pageRpm', COLORS.sky), bars('Session RPM', 'sessionRpm', COLORS.blue)] },
     options: {
       indexAxis: 'y',
-      scales: { x: { beginAtZero: true, ticks: { callback: (v) => fmt.money(v) } }, y: { ticks: { autoSkip: false } } },
+      scales: { x: { beginAtZero: true, ticks: { callback: fmt.money } }, y: { ticks: { autoSkip: false } } },
       plugins: {
         flGuides: { lines: [
           { y: site.pageRpm, color: COLORS.sky, label: `site page RPM ${fmt.money(site.pageRpm)}` },
           { y: site.sessionRpm, color: COLORS.blue, label: `site session RPM ${fmt.money(site.sessionRpm)}` },
         ] },
         tooltip: { callbacks: { label: (c) => {
-          const r = shown[c.dataIndex];
-          return c.datasetIndex === 0 ? `Page RPM ${fmt.money(r.pageRpm)} (${fmt.times(r.pageRpmVsSite)} the site)`
-            : `Session RPM ${fmt.money(r.sessionRpm)} (${fmt.times(r.sessionRpmVsSite)} the site)`;
+          const [r, k] = [shown[c.dataIndex], c.datasetIndex ? 'sessionRpm' : 'pageRpm'];
+          return `${c.dataset.label} ${fmt.money(r[k])} (${fmt.times(r[k + 'VsSite'])} the site)`;
         } } },
       },
     },
-  }, { label: `Page and session RPM of ${shown.length} ${by === 'region' ? 'regions' : 'countries'}` });
+  }, { label: `Page and session RPM of ${shown.length} ${regions ? 'regions' : 'countries'}` });
 }

@@ -24,9 +24,10 @@ import org.springframework.security.web.util.matcher.RequestMatcher;
 @Configuration(proxyBeanMethods = false)
 class SecurityConfig {
 
-    static final String[] PUBLIC = {"/login", "/error", "/webjars/**", "/actuator/health", "/actuator/health/**",
-            "/v3/api-docs", "/v3/api-docs/**", "/swagger-ui/**", "/swagger-ui.html", "/tag.js", "/schemas/**",
-            "/favicon.ico"};
+    /** What needs no sign-in: the sign-in page with its script, style and icon, the tag, health, API docs. */
+    static final String[] PUBLIC = {"/login.html", "/js/login.js", "/css/**", "/favicon.svg", "/error",
+            "/webjars/**", "/actuator/health", "/actuator/health/**", "/v3/api-docs", "/v3/api-docs/**",
+            "/swagger-ui/**", "/swagger-ui.html", "/tag.js", "/schemas/**", "/favicon.ico"};
 
     @Bean
     @ConditionalOnWebApplication(type = ConditionalOnWebApplication.Type.SERVLET)
@@ -43,7 +44,9 @@ class SecurityConfig {
                         .anyRequest().authenticated())
                 .authenticationProvider(passwords)
                 .addFilterBefore(new BearerTokenFilter(tokens, users), BasicAuthenticationFilter.class)
-                .formLogin(Customizer.withDefaults())
+                // our own page (frontend/app/login.html); Spring Security processes its form (username, password,
+                // _csrf) at POST /login and sends failures back to /login.html?error
+                .formLogin(f -> f.loginPage("/login.html").loginProcessingUrl("/login").permitAll())
                 .logout(Customizer.withDefaults())
                 .csrf(csrf -> csrf.requireCsrfProtectionMatcher(cookieAuthenticatedWrite())
                         // the browser UI reads the XSRF-TOKEN cookie and sends it back as the X-XSRF-TOKEN header

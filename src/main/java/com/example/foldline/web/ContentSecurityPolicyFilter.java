@@ -24,15 +24,15 @@ import jakarta.servlet.http.HttpServletResponse;
  * Sends a Content-Security-Policy with the browser UI's page: scripts only from our own origin, no inline script
  * or style. The one inline element the UI has, its import map (which browsers treat as a script), is allowed by its
  * SHA-256 hash, computed from the packaged {@code static/index.html} at start so the two never drift apart. Only the
- * UI's document gets the policy (a policy acts on documents): the login page, the API explorer and pages of other
- * origins that load the site tag bring their own rules.
+ * UI's documents (the app and its sign-in page) get the policy, since a policy acts on documents: the API explorer
+ * and pages of other origins that load the site tag bring their own rules.
  */
 @Component
 class ContentSecurityPolicyFilter extends OncePerRequestFilter {
 
     private static final Pattern IMPORT_MAP = Pattern.compile("<script type=\"importmap\">(.*?)</script>",
             Pattern.DOTALL);
-    private static final List<String> APP = List.of("/", "/index.html");
+    private static final List<String> APP = List.of("/", "/index.html", "/login.html");
 
     private final String policy;
 

@@ -89,6 +89,7 @@ class BrowserUiTests {
     static final String[] PATHS = {"/", "/recipes/fish-stew", "/recipes/lemon-tart", "/news/harbour-works",
             "/news/market-prices", "/guides/slow-cooking", "/guides/knife-care", "/recipes/bean-soup",
             "/recipes/bread", "/news/ferry-timetable", "/guides/storing-herbs", "/recipes/sardines", XSS_PATH};
+    static final String READER_PASSWORD = "reader-ann-password";
     static final String[] COUNTRIES = {"PT", "PT", "PT", "ES", "ES", "FR", "DE", "US"};
 
     @LocalServerPort
@@ -181,7 +182,9 @@ class BrowserUiTests {
         screenshot("01-sites");
         card.findElement(By.tagName("a")).click();
         waitRendered();
-        assertThat(driver.getCurrentUrl()).contains("screen=health", "site=" + gazette.id(), "from=", "to=");
+        // issue #6: the default range is written as the relative "last 28 days", so a copied link stays relative
+        assertThat(driver.getCurrentUrl()).contains("screen=health", "site=" + gazette.id(), "range=28d")
+                .doesNotContain("from=");
     }
 
     @Test
@@ -192,8 +195,6 @@ class BrowserUiTests {
         assertThat(points("chart-series", 0)).isEqualTo(28);
         assertThat(seriesValues("chart-series", 0)).isEqualTo(apiValues(api(gazette, "timeseries", range())
                 .get("points"), "value"));
-        // every tile draws its own trend line of 28 days
-        waitFor("sparklines", d -> driver.findElements(By.cssSelector(".tile .spark canvas[data-points='28']")).size() == 13);
 
         // compare with the previous period: the URL says so and the chart gets a second line
         int before = renders();
@@ -204,22 +205,22 @@ class BrowserUiTests {
 
         // a note with markup in it: stored, drawn as a marker, shown as text
         String note = "<b>new sidebar ad</b><img src=x onerror=\"window.__xss='note'\">";
-        driver.findElement(By.cssSelector(".note-form input[name=date]")).clear();
-        js("const i = document.querySelector('.note-form input[name=date]'); i.value = arguments[0];",
-                today.minusDays(10).toString());
-        driver.findElement(By.cssSelector(".note-form input[name=text]")).sendKeys(note);
+        js("document.querySelector('#note-form input[name=date]').value = arguments[0];", today.minusDays(10).toString());
+        driver.findElement(By.cssSelector("#note-form input[name=text]")).sendKeys(note);
         before = renders();
-        driver.findElement(By.id("add-note")).click();
+        driver.findElement(By.cssSelector("#note-form button[type=submit]")).click();
         waitRendered(before);
         assertThat(driver.findElement(By.cssSelector(".note-list .note-text")).getText()).isEqualTo(note);
         assertThat(js("return Chart.getChart('chart-series').options.plugins.flGuides.lines.length")).isEqualTo(1L);
         assertNoScriptRan();
         screenshot("02-health");
 
-        // an empty note is refused in words before it reaches the server
-        driver.findElement(By.id("add-note")).click();
-        assertThat(driver.findElement(By.cssSelector("section[aria-labelledby=notes-title] .form-message")).getText())
-                .contains("Write the note");
+        // an empty note is refused in words, next to the field
+        driver.findElement(By.cssSelector("#note-form button[type=submit]")).click();
+        waitFor("note refused", d -> d.findElement(By.cssSelector("#note-form input[name=text]"))
+                .getDomAttribute("aria-invalid") != null);
+        WebElement text = driver.findElement(By.cssSelector("#note-form input[name=text]"));
+        assertThat(driver.findElement(By.id(text.getDomAttribute("aria-describedby"))).getText()).isEqualTo("Is required.");
     }
 
     @Test
@@ -244,7 +245,7 @@ class BrowserUiTests {
         JsonNode advice = answer.get("recommendation");
         assertThat(driver.findElement(By.cssSelector("#recommendation .cap")).getText())
                 .isEqualTo("At most " + advice.get("cap").asInt() + " ads per page");
-        assertThat(driver.findElement(By.id("cap-facts")).getText()).contains("probability that it is the best cap",
+        assertThat(driver.findElement(By.id("cap-facts")).getText()).contains("probability that it is best",
                 "expected gain");
         assertThat(points("chart-caps", 0)).isEqualTo(advice.get("caps").size());
         // thin points (fewer than 100 sessions) are drawn hollow
@@ -283,11 +284,13 @@ class BrowserUiTests {
         waitRendered(before);
         assertThat(doubles("return Chart.getChart('chart-volume').data.datasets[0].data")).isEqualTo(sessionsPhone);
 
-        // a preset writes concrete dates into the address
+        // a preset writes a relative range into the address (issue #6), the dates follow today
         before = renders();
         driver.findElement(By.cssSelector(".chip[data-preset='7d']")).click();
         waitRendered(before);
-        assertThat(driver.getCurrentUrl()).contains("from=" + today.minusDays(6), "to=" + today, "device=phone");
+        assertThat(driver.getCurrentUrl()).contains("range=7d", "device=phone").doesNotContain("from=");
+        assertThat(driver.findElement(By.cssSelector(".segment input[name=from]")).getDomProperty("value"))
+                .isEqualTo(today.minusDays(6).toString());
         assertThat(driver.findElement(By.cssSelector(".chip[data-preset='7d']")).getDomAttribute("aria-pressed"))
                 .isEqualTo("true");
     }
@@ -323,7 +326,8 @@ class BrowserUiTests {
         open(screen("depth"));
         JsonNode depth = api(gazette, "depth", range());
         assertThat(points("chart-revenue", 0)).isEqualTo(depth.get("points").size()).isEqualTo(11);
-        assertThat(points("chart-marginal", 0)).isEqualTo(11);
+        // what the n-th page adds: the third dataset of the same chart
+        assertThat(points("chart-revenue", 2)).isEqualTo(11);
         assertThat(driver.findElement(By.id("depth-knee")).getText()).containsAnyOf("Knee (", "No knee: ");
         screenshot("04-depth");
 
@@ -450,6 +454,233 @@ class BrowserUiTests {
                         String.format(java.util.Locale.ROOT, "%.0f", max)));
     }
 
+    // ------------------------------------------------------------------------ issue #6: views, people, settings
+
+    @Test
+    @Order(12)
+    void aSavedViewOpensByItsLinkInAFreshSessionAndItsRangeStaysRelative() throws Exception {
+        String address = "/?screen=density&site=" + gazette.id() + "&range=90d&device=desktop";
+        open(address);
+        assertThat(driver.findElement(By.cssSelector(".segment input[name=from]")).getDomProperty("value"))
+                .isEqualTo(today.minusDays(89).toString());
+        // copy link: the address, confirmed on screen, with a field to copy from by hand
+        driver.findElement(By.id("copy-link")).click();
+        waitFor("copied link", d -> !d.findElements(By.id("link-text")).isEmpty());
+        assertThat(driver.findElement(By.id("link-text")).getDomProperty("value")).isEqualTo(base() + address);
+        assertThat(driver.findElement(By.cssSelector(".view-out")).getText()).containsAnyOf("Link copied", "Copy this link");
+
+        // save: an empty name is refused next to the field, then the view is saved and its link shown
+        driver.findElement(By.id("save-view")).click();
+        driver.findElement(By.cssSelector("#save-form button[type=submit]")).click();
+        waitFor("name error", d -> !d.findElement(By.cssSelector("#save-form .field-error")).getText().isEmpty());
+        assertThat(driver.findElement(By.cssSelector("#save-form .field-error")).getText()).contains("1 to 120 characters");
+        driver.findElement(By.cssSelector("#save-form input[name=name]")).sendKeys("Desktop readers, last 90 days");
+        driver.findElement(By.cssSelector("#save-form button[type=submit]")).click();
+        waitFor("saved view link", d -> d.findElements(By.id("link-text")).stream()
+                .anyMatch(e -> e.getDomProperty("value").contains("/v/")));
+        String link = driver.findElement(By.id("link-text")).getDomProperty("value");
+        assertThat(driver.findElement(By.cssSelector(".view-out")).getText()).contains("Saved “Desktop readers, last 90 days”");
+        screenshot("12-view-saved");
+
+        // a fresh session: no cookies, the link, the sign-in page, then the same view with the range still relative
+        driver.manage().deleteAllCookies();
+        driver.get(link);
+        waitFor("login page", d -> !d.findElements(By.name("username")).isEmpty());
+        screenshot("13-login");
+        driver.findElement(By.name("username")).sendKeys("admin");
+        driver.findElement(By.name("password")).sendKeys("admin-secret");
+        driver.findElement(By.cssSelector("button[type=submit]")).click();
+        waitFor("the app", d -> !d.findElements(By.id("main")).isEmpty());
+        waitRendered();
+        assertThat(driver.getCurrentUrl()).isEqualTo(base() + address);
+        assertThat(driver.findElement(By.cssSelector(".chip[data-preset='90d']")).getDomAttribute("aria-pressed"))
+                .isEqualTo("true");
+        assertThat(new Select(driver.findElement(By.cssSelector(".segment select[name=device]")))
+                .getFirstSelectedOption().getText()).isEqualTo("desktop");
+        assertThat(doubles("return Chart.getChart('chart-volume').data.datasets[0].data")).isEqualTo(apiValues(
+                api(gazette, "density", "from=" + today.minusDays(89) + "&to=" + today + "&device=desktop")
+                        .get("points"), "sessions"));
+
+        // the list: owner, shared, opened just now; pinning puts it first
+        open("/?screen=views&site=" + gazette.id());
+        WebElement row = viewRow("Desktop readers, last 90 days");
+        assertThat(row.getText()).contains("admin (you)", "with the site").doesNotContain("never");
+        row.findElement(By.xpath(".//button[text()='Pin']")).click();
+        waitFor("pinned", d -> viewRow("Desktop readers, last 90 days").getText().contains("pinned"));
+        screenshot("14-views");
+    }
+
+    @Test
+    @Order(13)
+    void adminCreatesAUserAndATeamInTheUi() throws Exception {
+        open("/?screen=admin");
+        // the API's field error appears next to its field
+        fill("#user-form", "username", "reader-ann");
+        fill("#user-form", "password", "short");
+        driver.findElement(By.cssSelector("#user-form button[type=submit]")).click();
+        waitFor("password error", d -> d.findElement(By.cssSelector("#user-form input[name=password]"))
+                .getDomAttribute("aria-invalid") != null);
+        WebElement password = driver.findElement(By.cssSelector("#user-form input[name=password]"));
+        assertThat(driver.findElement(By.id(password.getDomAttribute("aria-describedby"))).getText())
+                .isEqualTo("Must have at least 10 characters.");
+        screenshot("15-admin-field-error");
+        password.clear();
+        password.sendKeys(READER_PASSWORD);
+        driver.findElement(By.cssSelector("#user-form button[type=submit]")).click();
+        waitFor("new user", d -> d.findElement(By.id("users")).getText().contains("reader-ann"));
+
+        fill("#team-form", "name", "Night desk");
+        driver.findElement(By.cssSelector("#team-form button[type=submit]")).click();
+        waitFor("new team", d -> !d.findElements(By.cssSelector(".team[data-team='Night desk']")).isEmpty());
+        WebElement team = driver.findElement(By.cssSelector(".team[data-team='Night desk']"));
+        team.findElement(By.name("username")).sendKeys("reader-ann");
+        team.findElement(By.cssSelector("button[type=submit]")).click();
+        waitFor("member", d -> d.findElement(By.cssSelector(".team[data-team='Night desk'] .members")).getText()
+                .contains("reader-ann"));
+        screenshot("16-admin");
+    }
+
+    @Test
+    @Order(14)
+    void aDeletedViewSaysSoAndAUserWithoutAccessSeesTheNoAccessPage() throws Exception {
+        String live = saveViewByApi("Phone readers from search", "density", "device=phone&source=search");
+        String doomed = saveViewByApi("Old view", "geography", "sort=sessionRpm");
+        open("/?screen=views&site=" + gazette.id());
+        viewRow("Old view").findElement(By.xpath(".//button[text()='Delete']")).click();
+        driver.switchTo().alert().accept();
+        waitFor("deleted", d -> d.findElements(By.xpath("//table[@id='view-list']//a[text()='Old view']")).isEmpty());
+        driver.get(base() + doomed);
+        assertThat(driver.findElement(By.tagName("h1")).getText()).isEqualTo("This view was deleted");
+        assertThat(driver.findElement(By.tagName("body")).getDomAttribute("class")).isEqualTo("notice-page");
+        screenshot("17-view-deleted");
+
+        // sign out, and in as a user with no role on the site
+        open("/?screen=health&site=" + gazette.id());
+        driver.findElement(By.id("sign-out")).click();
+        waitFor("signed out", d -> d.getCurrentUrl().contains("/login.html?logout"));
+        assertThat(driver.findElement(By.id("login-message")).getText()).isEqualTo("You have signed out.");
+        driver.get(base() + live);
+        signInAs("reader-ann", READER_PASSWORD);
+        waitFor("no access page", d -> !d.findElements(By.cssSelector("body.notice-page h1")).isEmpty());
+        assertThat(driver.findElement(By.tagName("h1")).getText()).isEqualTo("No access");
+        assertThat(driver.getPageSource()).doesNotContain("Exception", "Whitelabel");
+        screenshot("18-no-access");
+        // a wrong password brings the sign-in page back with a reason
+        driver.manage().deleteAllCookies();
+        driver.get(base() + "/");
+        signInAs("admin", "not-the-password");
+        waitFor("login error", d -> d.getCurrentUrl().contains("/login.html?error"));
+        assertThat(driver.findElement(By.id("login-message")).getText()).startsWith("Wrong user name or password");
+        screenshot("19-login-error");
+        signInAs("admin", "admin-secret");
+        waitFor("the app", d -> !d.findElements(By.id("main")).isEmpty());
+    }
+
+    @Test
+    @Order(15)
+    void siteAdminCreatesAnIngestKeyShownOnceAndGivesARole() throws Exception {
+        open("/?screen=settings&site=" + lantern.id());
+        fill("#key-form", "label", "newsroom CMS");
+        driver.findElement(By.cssSelector("#key-form button[type=submit]")).click();
+        waitFor("new key", d -> !d.findElements(By.cssSelector(".secret input")).isEmpty());
+        String key = driver.findElement(By.cssSelector(".secret input")).getDomProperty("value");
+        assertThat(driver.findElement(By.cssSelector(".secret")).getText()).contains("shown only once");
+        String prefix = sites.ingestKeys(lantern.id()).stream().filter(k -> "newsroom CMS".equals(k.label()))
+                .findFirst().orElseThrow().prefix();
+        assertThat(key).startsWith(prefix);
+        assertThat(driver.findElement(By.id("keys")).getText()).contains(prefix, "newsroom CMS").doesNotContain(key);
+
+        // settings: a bad time zone is refused next to its field
+        WebElement zone = driver.findElement(By.cssSelector("#site-form input[name=timezone]"));
+        zone.clear();
+        zone.sendKeys("Mars/Olympus");
+        driver.findElement(By.cssSelector("#site-form button[type=submit]")).click();
+        waitFor("zone error", d -> d.findElement(By.cssSelector("#site-form input[name=timezone]"))
+                .getDomAttribute("aria-invalid") != null);
+        assertThat(driver.findElement(By.cssSelector("#site-form")).getText()).contains("Must be an IANA time zone");
+
+        fill("#member-form", "name", "Night desk");
+        new Select(driver.findElement(By.cssSelector("#member-form select[name=type]"))).selectByValue("team");
+        driver.findElement(By.cssSelector("#member-form button[type=submit]")).click();
+        waitFor("member", d -> d.findElement(By.id("members")).getText().contains("Night desk"));
+        screenshot("20-settings");
+        // the key is still not shown again after a reload
+        open("/?screen=settings&site=" + lantern.id());
+        assertThat(driver.findElements(By.cssSelector(".secret input"))).isEmpty();
+    }
+
+    @Test
+    @Order(16)
+    void theFitScreenDrawsAFitOfPastedColumns() throws Exception {
+        open("/?screen=fit");
+        String csv = new String(getClass().getResourceAsStream("/reference/stagnant.csv").readAllBytes(),
+                StandardCharsets.UTF_8);
+        driver.findElement(By.id("fit-data")).sendKeys(csv);
+        // the reference is the one-break model; with two allowed, BIC prefers two breaks on these data
+        fill("#fit-form", "maxBreakpoints", "1");
+        driver.findElement(By.cssSelector("#fit-form button[type=submit]")).click();
+        waitFor("fit", d -> !d.findElements(By.cssSelector("#fit-breakpoints tbody td")).isEmpty());
+        // checkvalues S1 (R segmented): breakpoint 0.0411
+        assertThat(driver.findElement(By.cssSelector("#fit-breakpoints tbody td")).getText()).startsWith("0.041");
+        // the number of breakpoints with the BIC of each candidate, and the break test
+        assertThat(driver.findElement(By.id("fit-result")).getText()).contains("BIC", "Davies", "p < 0.001");
+        assertThat(points("chart-fit", 0)).isEqualTo(28);
+        assertThat(points("chart-fit", 1)).isGreaterThan(2);
+        screenshot("21-fit-segmented");
+
+        // a knee of a saturating curve (checkvalues K2, kneed's test suite: knee at 2)
+        js("document.getElementById('fit-data').value = arguments[0]", "0 0\n1 60\n2 80\n3 85\n4 90\n5 95\n6 96\n7 97\n8 98\n9 99");
+        new Select(driver.findElement(By.cssSelector("#fit-method"))).selectByValue("knee");
+        driver.findElement(By.cssSelector("#fit-form button[type=submit]")).click();
+        waitFor("knee", d -> !d.findElements(By.id("kneedle")).isEmpty());
+        assertThat(driver.findElement(By.id("kneedle")).getText()).startsWith("Kneedle: knee at x = 2 ");
+        screenshot("22-fit-knee");
+        // columns that are not numbers are refused in words
+        js("document.getElementById('fit-data').value = arguments[0]", "x,y\n1,2\n3,four\n5,6");
+        driver.findElement(By.cssSelector("#fit-form button[type=submit]")).click();
+        waitFor("refused", d -> d.findElement(By.cssSelector("#fit-form .form-message")).getText().contains("four"));
+    }
+
+    @Test
+    @Order(17)
+    void accountCreatesAPersonalTokenShownOnce() throws Exception {
+        open("/?screen=account");
+        assertThat(driver.findElement(By.id("screen-title")).getText()).isEqualTo("Your account");
+        fill("#token-form", "name", "weekly export");
+        driver.findElement(By.cssSelector("#token-form button[type=submit]")).click();
+        waitFor("token", d -> !d.findElements(By.cssSelector(".secret input")).isEmpty());
+        String token = driver.findElement(By.cssSelector(".secret input")).getDomProperty("value");
+        HttpResponse<String> me = http.send(HttpRequest.newBuilder(URI.create(base() + "/api/v1/me"))
+                .header("Authorization", "Bearer " + token).build(), HttpResponse.BodyHandlers.ofString());
+        assertThat(me.statusCode()).isEqualTo(200);
+        assertThat(driver.findElement(By.id("tokens")).getText()).contains("weekly export");
+        fill("#password-form", "currentPassword", "wrong-password");
+        fill("#password-form", "newPassword", "a-new-password");
+        driver.findElement(By.cssSelector("#password-form button[type=submit]")).click();
+        waitFor("password error", d -> d.findElement(By.cssSelector("#password-form")).getText().contains("Does not match"));
+        screenshot("23-account");
+    }
+
+    @Test
+    @Order(18)
+    void aViewerSeesNoSaveViewAndNoSettings() throws Exception {
+        // reader-ann is in the Night desk team, which holds the viewer role on Lantern Weekly (previous tests)
+        driver.manage().deleteAllCookies();
+        driver.get(base() + "/?screen=density&site=" + lantern.id());
+        signInAs("reader-ann", READER_PASSWORD);
+        waitRendered();
+        assertThat(driver.findElements(By.id("copy-link"))).hasSize(1);
+        assertThat(driver.findElements(By.id("save-view"))).isEmpty();
+        assertThat(driver.findElements(By.id("nav-settings"))).isEmpty();
+        assertThat(driver.findElements(By.id("nav-admin"))).isEmpty();
+        // only the site the team may see
+        assertThat(new Select(driver.findElement(By.id("site-picker"))).getOptions()).extracting(WebElement::getText)
+                .containsExactly("Choose a site…", "Lantern Weekly");
+        screenshot("24-viewer");
+        driver.manage().deleteAllCookies();
+        signIn("/");
+    }
+
     // ------------------------------------------------------------------------------------------------ helpers
 
     String base() {
@@ -466,11 +697,38 @@ class BrowserUiTests {
 
     void signIn(String address) {
         driver.get(base() + address);
-        waitFor("login page", d -> !d.findElements(By.name("username")).isEmpty());
-        driver.findElement(By.name("username")).sendKeys("admin");
-        driver.findElement(By.name("password")).sendKeys(System.getProperty("foldline.ui.bench.password", "admin-secret"));
-        driver.findElement(By.cssSelector("button[type=submit]")).click();
+        signInAs("admin", System.getProperty("foldline.ui.bench.password", "admin-secret"));
         waitFor("the app", d -> !d.findElements(By.id("main")).isEmpty());
+    }
+
+    /** On the sign-in page (our own, frontend/app/login.html). */
+    void signInAs(String username, String password) {
+        waitFor("login page", d -> !d.findElements(By.name("username")).isEmpty());
+        driver.findElement(By.name("username")).sendKeys(username);
+        driver.findElement(By.name("password")).sendKeys(password);
+        driver.findElement(By.cssSelector("button[type=submit]")).click();
+    }
+
+    void fill(String form, String name, String value) {
+        WebElement input = driver.findElement(By.cssSelector(form + " [name=" + name + "]"));
+        input.clear();
+        input.sendKeys(value);
+    }
+
+    WebElement viewRow(String name) {
+        return driver.findElement(By.xpath("//table[@id='view-list']//tr[.//a[text()='" + name + "']]"));
+    }
+
+    /** Saves a view of the gazette through the API (basic auth: no session, no CSRF token); returns its link. */
+    String saveViewByApi(String name, String screen, String state) throws Exception {
+        String body = json.writeValueAsString(Map.of("name", name, "screen", screen, "state", state, "shared", true));
+        HttpResponse<String> response = http.send(HttpRequest.newBuilder(URI.create(base() + "/api/v1/sites/"
+                        + gazette.id() + "/views")).header("Authorization", "Basic " + Base64.getEncoder()
+                        .encodeToString("admin:admin-secret".getBytes(StandardCharsets.UTF_8)))
+                .header("Content-Type", "application/json").POST(HttpRequest.BodyPublishers.ofString(body)).build(),
+                HttpResponse.BodyHandlers.ofString());
+        assertThat(response.statusCode()).as(response.body()).isEqualTo(201);
+        return json.readTree(response.body()).get("link").stringValue();
     }
 
     void open(String address) {
@@ -493,7 +751,8 @@ class BrowserUiTests {
     }
 
     void waitFor(String what, java.util.function.Function<org.openqa.selenium.WebDriver, Boolean> condition) {
-        new WebDriverWait(driver, Duration.ofSeconds(20)).withMessage(what).until(condition::apply);
+        new WebDriverWait(driver, Duration.ofSeconds(20)).withMessage(what)
+                .ignoring(org.openqa.selenium.StaleElementReferenceException.class).until(condition::apply);
     }
 
     Object js(String script, Object... args) {

@@ -39,18 +39,22 @@ class ContentSecurityPolicyTests {
                 .getHeader("Content-Security-Policy")).isEqualTo(policy);
         assertThat(policy).contains(expected, "style-src 'self';", "object-src 'none'", "frame-ancestors 'none'")
                 .doesNotContain("unsafe-inline", "unsafe-eval");
-        // only the UI's page: the generated login page keeps its own inline styles, the tag is loaded by other sites
-        assertThat(mvc.get().uri("/login").exchange().getResponse().getHeader("Content-Security-Policy")).isNull();
+        // the UI's pages (the app and its own sign-in page, public); not the tag, which other sites load
+        var login = mvc.get().uri("/login.html").exchange();
+        assertThat(login).hasStatusOk();
+        assertThat(login.getResponse().getHeader("Content-Security-Policy")).isEqualTo(policy);
         assertThat(mvc.get().uri("/tag.js").exchange().getResponse().getHeader("Content-Security-Policy")).isNull();
     }
 
     @Test
     void noPageOfTheAppHasInlineScriptsStylesOrHandlers() throws Exception {
-        String html = Files.readString(Path.of("frontend/app/index.html"));
-        assertThat(html.replaceAll("(?s)<script type=\"importmap\">.*?</script>", ""))
-                .doesNotContainPattern("<script(?![^>]*\\ssrc=)[^>]*>")
-                .doesNotContainPattern("(?i)\\son[a-z]+=")
-                .doesNotContainPattern("(?i)<style|\\sstyle=");
+        for (String page : java.util.List.of("index.html", "login.html")) {
+            String html = Files.readString(Path.of("frontend/app", page));
+            assertThat(html.replaceAll("(?s)<script type=\"importmap\">.*?</script>", "")).as(page)
+                    .doesNotContainPattern("<script(?![^>]*\\ssrc=)[^>]*>")
+                    .doesNotContainPattern("(?i)\\son[a-z]+=")
+                    .doesNotContainPattern("(?i)<style|\\sstyle=");
+        }
         try (var files = Files.walk(Path.of("frontend/app/js"))) {
             for (Path f : files.filter(p -> p.toString().endsWith(".js") && !p.toString().contains("/test/")).toList()) {
                 assertThat(Files.readString(f)).as(f.toString())
