@@ -9,7 +9,7 @@ package com.example.foldline.stats;
  * confidence interval d ± t<sub>1−α/2, df</sub>·SE is always two-sided, whatever the alternative of the p-value.
  *
  * <p>Behaviour on thin data: a group with fewer than 2 observations has no variance estimate; the result then has NaN
- * t, df, p-value and limits (the difference is still reported when both groups have n ≥ 1). When both variances are 0,
+ * t, degrees of freedom, p-value and limits (the difference is still reported when both groups have n ≥ 1). When both variances are 0,
  * SE = 0: a zero difference gives NaN t and p; a non-zero one gives t = ±∞, p = 0 (for the matching alternative) and a
  * zero-width interval. Negative counts or variances, non-finite input and α outside (0, 1) throw
  * {@link IllegalArgumentException}.
@@ -68,7 +68,8 @@ public final class WelchTest {
             case LESS -> Distributions.studentTCdf(t, df);
         };
         double q = Distributions.studentTQuantile(1 - alpha / 2, df);
-        return new WelchResult(d, se, t, df, p, d - q * se, d + q * se, alternative);
+        double pValue = p;
+        return new WelchResult(d, se, t, df, pValue, d - q * se, d + q * se, alternative);
     }
 
     private static void checkGroup(String group, long n, double mean, double variance) {

@@ -169,7 +169,7 @@ class DistributionsTests {
             for (double p : new double[] {1e-10, 0.025, 0.3, 0.975}) {
                 double t = Distributions.studentTQuantile(p, df);
                 double tolerance = df < 1e3 || df > 1e5 ? 1e-13 : 1e-11;
-                assertThat(Distributions.studentTCdf(t, df)).as("df %s p %s", df, p)
+                assertThat(Distributions.studentTCdf(t, df)).as("probability %s at %s degrees of freedom", p, df)
                     .isCloseTo(p, within(tolerance * p + 1e-16));
             }
         }
