@@ -6,13 +6,11 @@ import java.time.LocalDate;
 import java.util.ArrayList;
 import java.util.EnumMap;
 import java.util.List;
-import java.util.Locale;
 import java.util.Map;
-import java.util.Set;
 import java.util.StringJoiner;
 import java.util.TreeMap;
-import java.util.regex.Pattern;
 
+import com.example.foldline.metrics.MetricRequest;
 import com.example.foldline.sessions.Dim;
 import com.example.foldline.sessions.SegmentFilter;
 import com.example.foldline.system.FieldError;
@@ -24,12 +22,7 @@ import com.example.foldline.system.FieldError;
  */
 final class SegmentSpec {
 
-    static final Map<String, Dim> DIMENSIONS = Map.of("device", Dim.DEVICE, "source", Dim.SOURCE,
-            "country", Dim.COUNTRY, "region", Dim.REGION, "browser", Dim.BROWSER, "variant", Dim.VARIANT);
-    private static final Set<String> DEVICES = Set.of("desktop", "phone", "tablet", "other");
-    private static final Set<String> SOURCES = Set.of("search", "social", "direct", "referral", "email", "paid", "other");
-    private static final Set<String> COUNTRIES = Set.of(Locale.getISOCountries());
-    private static final Pattern REGION = Pattern.compile("[A-Z]{2}-[A-Z0-9]{1,3}");
+    static final Map<String, Dim> DIMENSIONS = MetricRequest.DIMENSIONS;
     private static final int MAX_VALUES = 20;
 
     private SegmentSpec() {
@@ -54,11 +47,11 @@ final class SegmentSpec {
             }
             List<String> accepted = new ArrayList<>();
             for (String v : values) {
-                String problem = check(name, v);
+                String problem = MetricRequest.check(name, v);
                 if (problem != null) {
                     errors.add(new FieldError(field, problem));
                 } else {
-                    String n = name.equals("country") || name.equals("region") ? v.toUpperCase(Locale.ROOT) : v;
+                    String n = MetricRequest.normalise(name, v);
                     if (!accepted.contains(n)) {
                         accepted.add(n);
                     }
@@ -68,22 +61,6 @@ final class SegmentSpec {
             out.put(name, List.copyOf(accepted));
         });
         return out;
-    }
-
-    private static String check(String name, String v) {
-        if (v == null) {
-            return "must not contain null";
-        }
-        return switch (name) {
-            case "device" -> DEVICES.contains(v) ? null : "must be desktop, phone, tablet or other, got '" + v + "'";
-            case "source" -> SOURCES.contains(v) ? null
-                    : "must be search, social, direct, referral, email, paid or other, got '" + v + "'";
-            case "country" -> COUNTRIES.contains(v.toUpperCase(Locale.ROOT)) ? null
-                    : "must be an ISO 3166-1 alpha-2 code, got '" + v + "'";
-            case "region" -> REGION.matcher(v.toUpperCase(Locale.ROOT)).matches() ? null
-                    : "must be an ISO 3166-2 code such as PT-11, got '" + v + "'";
-            default -> v.isEmpty() || v.length() > 64 ? "must be 1 to 64 characters" : null;
-        };
     }
 
     /** The rollup filter for local days {@code from}..{@code to}. */

@@ -26,7 +26,8 @@ public record MetricRequest(Site site, SegmentFilter filter, boolean compare, Ma
     public static final int MAX_DAYS = 400;
     public static final int DEFAULT_DAYS = 28;
 
-    static final Map<String, Dim> DIMENSIONS = Map.of("device", Dim.DEVICE, "source", Dim.SOURCE,
+    /** The segment dimensions by their API name; the one list the metrics API, views and alerts share. */
+    public static final Map<String, Dim> DIMENSIONS = Map.of("device", Dim.DEVICE, "source", Dim.SOURCE,
             "country", Dim.COUNTRY, "region", Dim.REGION, "browser", Dim.BROWSER, "variant", Dim.VARIANT);
     private static final Set<String> DEVICES = Set.of("desktop", "phone", "tablet", "other");
     private static final Set<String> SOURCES = Set.of("search", "social", "direct", "referral", "email", "paid", "other");
@@ -125,7 +126,11 @@ public record MetricRequest(Site site, SegmentFilter filter, boolean compare, Ma
         }
     }
 
-    private static String check(String name, String v) {
+    /** Why a value is not acceptable for a segment dimension (null when it is); docs/metrics.md, "Filters". */
+    public static String check(String name, String v) {
+        if (v == null) {
+            return "must not contain null";
+        }
         return switch (name) {
             case "device" -> DEVICES.contains(v) ? null : "must be desktop, phone, tablet or other, got '" + v + "'";
             case "source" -> SOURCES.contains(v) ? null
@@ -138,7 +143,8 @@ public record MetricRequest(Site site, SegmentFilter filter, boolean compare, Ma
         };
     }
 
-    private static String normalise(String name, String v) {
+    /** The stored form of a valid value: country and region in upper case. */
+    public static String normalise(String name, String v) {
         return name.equals("country") || name.equals("region") ? v.toUpperCase(Locale.ROOT) : v;
     }
 
