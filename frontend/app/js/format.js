@@ -42,6 +42,9 @@ export function makeFormat(locale, currency = 'EUR') {
     // a calendar day: no time zone shift
     date: (iso, opts = { day: 'numeric', month: 'short', year: 'numeric' }) => (iso?.length >= 10
       ? day(opts).format(new Date(iso.slice(0, 10) + 'T00:00Z')) : DASH),
+    // a local hour of the site, as the API writes it: 2026-11-30T14:00
+    hour: (iso) => (iso?.length >= 16 ? fmt.date(iso, { day: 'numeric', month: 'short' }) + ' ' + iso.slice(11, 16)
+      : DASH),
     when: (iso) => (iso ? new Date(iso).toLocaleString(locale, { dateStyle: 'medium', timeStyle: 'short' }) : 'never'),
     range: (from, to) => fmt.date(from) + ' – ' + fmt.date(to),
     pValue: (p) => (!ok(p) ? 'p not available' : p < 0.001 ? 'p < 0.001' : 'p = ' + fmt.sig(p, 2)),

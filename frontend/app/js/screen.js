@@ -4,6 +4,7 @@ import { h } from './dom.js';
 import { apiQuery } from './state.js';
 import { previousRange } from './range.js';
 import { sentence } from './verdict.js';
+import { COLORS } from './charts.js';
 
 /** Heading and introduction; returns the scope line. */
 export function heading(ctx, title, intro) {
@@ -40,3 +41,14 @@ export function load(ctx, name, extras, panels, previousExtras = extras) {
 
 export const emptyMessage = (what, notice) => (notice ? sentence(notice) : `No ${what} in this segment and dates.`)
   + ' Widen the dates or remove a reader filter.';
+
+/**
+ * With "compare" on: each point gains `previous`, the previous period's `key` at the same label, and the chart a
+ * grey dashed line of it on the bar axis. Returns the extra datasets (none without a previous answer).
+ */
+export function withPrevious(points, prev, key) {
+  if (!prev) return [];
+  for (const p of points) p.previous = prev.points.find((q) => q.label === p.label)?.[key] ?? null;
+  return [{ type: 'line', label: 'Previous period', data: points.map((p) => p.previous), borderColor: COLORS.muted,
+    backgroundColor: COLORS.muted, borderDash: [6, 4], pointRadius: 2, borderWidth: 1.5 }];
+}

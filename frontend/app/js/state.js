@@ -13,7 +13,7 @@ export const SOURCES = ['search', 'social', 'direct', 'referral', 'email', 'paid
 
 const ORDER = ['desc', ['desc', 'asc']];
 const EXTRAS = {
-  health: { metric: ['sessions', METRIC_NAMES] },
+  health: { metric: ['sessions', METRIC_NAMES], grain: ['day', ['day', 'hour']] },
   density: { model: ['logistic', ['logistic', 'linear']] },
   pages: {
     sort: ['sessions', ['sessions', 'bounceRate', 'sessionRpm']], order: ORDER,

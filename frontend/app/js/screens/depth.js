@@ -1,7 +1,7 @@
 // Reading depth: revenue per session by pages per session, what the n-th page adds, and the knee.
 
 import { h } from '../dom.js';
-import { heading, showScope, load, emptyMessage } from '../screen.js';
+import { heading, showScope, load, emptyMessage, withPrevious } from '../screen.js';
 import { COLORS, barsAndLine } from '../charts.js';
 import { kneeOf, sentence } from '../verdict.js';
 
@@ -14,12 +14,14 @@ export async function render(ctx) {
   const knee = h('p.knee#depth-knee');
   const curve = ctx.panel({ id: 'revenue', title: 'Revenue per session by pages per session',
     columns: [['label', 'Pages per session'], ['sessions', 'Sessions', 'count'], ['share', 'Share of sessions', '%'],
-      ['revenuePerSession', 'Revenue per session', 'money'], ['marginalRevenue', 'Value of the n-th page', 'money']],
+      ['revenuePerSession', 'Revenue per session', 'money'], ['marginalRevenue', 'Value of the n-th page', 'money'],
+      ...(ctx.state.compare ? [['previous', 'Previous period, revenue per session', 'money']] : [])],
     caption: 'Blue: mean revenue of sessions of that length (the last counts 11 pages or more). Green: what the n-th '
-      + 'page adds, revenue per session of n pages minus that of n − 1. Line: the share of sessions.' });
+      + 'page adds, revenue per session of n pages minus that of n − 1. Line: the share of sessions.'
+      + (ctx.state.compare ? ' Grey dashed: revenue per session in the previous period.' : '') });
   ctx.main.append(knee, curve.el);
 
-  const [answer] = await load(ctx, 'depth', {}, [curve], false) ?? [];
+  const [answer, prev] = await load(ctx, 'depth', {}, [curve]) ?? [];
   if (!answer) return;
   showScope(ctx, scope, answer.scope);
   const { points } = answer;
@@ -32,7 +34,7 @@ export async function render(ctx) {
   curve.show(points, barsAndLine({
     labels: points.map((p) => p.label), xTitle: 'Pages per session', lines,
     extra: [{ type: 'bar', label: 'Value of the n-th page', data: points.map((p) => p.marginalRevenue),
-      backgroundColor: COLORS.green + 'cc' }],
+      backgroundColor: COLORS.green + 'cc' }, ...withPrevious(points, prev, 'revenuePerSession')],
     bar: { label: 'Revenue per session', data: points.map((p) => p.revenuePerSession), color: COLORS.blue + 'cc',
       format: fmt.money },
     line: { label: 'Share of sessions', data: points.map((p) => p.share), color: COLORS.orange,

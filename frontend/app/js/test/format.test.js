@@ -69,3 +69,9 @@ test('country names in the reader language', () => {
   assert.equal(countryName('de', 'ES'), 'Spanien (ES)');
   assert.equal(countryName('en', ''), '–');
 });
+
+test('a local hour of the site reads as its day and clock time, whatever the browser\'s time zone', () => {
+  const f = makeFormat('en-GB', 'EUR');
+  assert.equal(f.hour('2026-03-29T02:00'), '29 Mar 02:00');   // the hour the clocks skip in Europe still reads as sent
+  assert.equal(f.hour(null), '–');
+});

@@ -38,7 +38,9 @@ test('malformed and unknown parameters are dropped, not trusted', () => {
   assert.deepEqual(s.filters, {});
   assert.deepEqual(s.tables, ['a']);
   const h = parseState('screen=health&site=2&metric=nonsense&grain=week');
-  assert.deepEqual(h.extras, { metric: 'sessions' });
+  assert.deepEqual(h.extras, { metric: 'sessions', grain: 'day' });
+  assert.equal(parseState('screen=health&site=2&grain=hour').extras.grain, 'hour');
+  assert.ok(!toSearch(parseState('screen=health&site=2&grain=day')).includes('grain'), 'defaults stay out of the URL');
 });
 
 test('a site without a screen opens its health screen; country codes are upper-cased and deduplicated', () => {

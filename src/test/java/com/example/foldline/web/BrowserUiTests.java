@@ -213,7 +213,23 @@ class BrowserUiTests {
         assertThat(driver.findElement(By.cssSelector(".note-list .note-text")).getText()).isEqualTo(note);
         assertThat(js("return Chart.getChart('chart-series').options.plugins.flGuides.lines.length")).isEqualTo(1L);
         assertNoScriptRan();
+        // each tile's trend line: one point per day, the values of the API's daily series of that metric
+        waitFor("trend lines", d -> "28".equals(d.findElement(By.cssSelector("#tile-bounceRate .spark canvas"))
+                .getDomAttribute("data-points")));
+        assertThat(doubles("return Chart.getChart(document.querySelector('#tile-bounceRate canvas')).data.datasets[0].data"))
+                .isEqualTo(apiValues(api(gazette, "timeseries", range() + "&metric=bounceRate").get("points"), "value"));
         screenshot("02-health");
+
+        // hours for a week or less: 7 days × 24 points, as the API answers them
+        String week = "from=" + today.minusDays(6) + "&to=" + today;
+        open("/?screen=health&site=" + gazette.id() + "&" + week + "&metric=bounceRate&grain=hour");
+        assertThat(points("chart-series", 0)).isEqualTo(7 * 24);
+        assertThat(seriesValues("chart-series", 0)).isEqualTo(apiValues(api(gazette, "timeseries", week
+                + "&metric=bounceRate&grain=hour").get("points"), "value"));
+        assertThat(new Select(driver.findElement(By.id("series-grain"))).getFirstSelectedOption().getDomAttribute("value"))
+                .isEqualTo("hour");
+        screenshot("02b-health-hourly");
+        open(screen("health"));
 
         // an empty note is refused in words, next to the field
         driver.findElement(By.cssSelector("#note-form button[type=submit]")).click();
@@ -330,6 +346,11 @@ class BrowserUiTests {
         assertThat(points("chart-revenue", 2)).isEqualTo(11);
         assertThat(driver.findElement(By.id("depth-knee")).getText()).containsAnyOf("Knee (", "No knee: ");
         screenshot("04-depth");
+        // with the previous period: a grey line of its revenue per session, as the API answers for those dates
+        open(screen("depth") + "&compare=previous");
+        JsonNode before = api(gazette, "depth", "from=" + today.minusDays(55) + "&to=" + today.minusDays(28));
+        assertThat(doubles("return Chart.getChart('chart-revenue').data.datasets[3].data"))
+                .isEqualTo(apiValues(before.get("points"), "revenuePerSession"));
 
         open(screen("engagement"));
         JsonNode engagement = api(gazette, "engagement", range());
