@@ -30,6 +30,8 @@ import jakarta.validation.constraints.NotNull;
  * @param publicUrl        the address people open Foldline at, used for links in notifications
  * @param webhooks         webhook delivery and its guard against misuse
  * @param mail             e-mail delivery (needs spring.mail.host)
+ * @param historyRetention state changes and notifications (with their deliveries) older than this are deleted by
+ *                         a daily job; a rule's current state is kept on the rule
  */
 @Validated
 @ConfigurationProperties("foldline.alerts")
@@ -41,7 +43,8 @@ record AlertProperties(@DefaultValue("true") boolean schedulerEnabled,
                        @DefaultValue("PT1H") @NotNull Duration rollupCacheTtl,
                        @DefaultValue("http://localhost:8080") @NotNull URI publicUrl,
                        @DefaultValue @Valid @NotNull Webhooks webhooks,
-                       @DefaultValue @Valid @NotNull Mail mail) {
+                       @DefaultValue @Valid @NotNull Mail mail,
+                       @DefaultValue("P400D") @NotNull Duration historyRetention) {
 
     AlertProperties {
         require(!interval.isNegative() && !interval.isZero(), "interval", interval);
@@ -49,6 +52,7 @@ record AlertProperties(@DefaultValue("true") boolean schedulerEnabled,
         require(!settleMargin.isNegative(), "settle-margin", settleMargin);
         require(maxCatchUp.toHours() >= 1 && maxCatchUp.toDays() <= 31, "max-catch-up", maxCatchUp);
         require(!rollupCacheTtl.isNegative() && rollupCacheTtl.toDays() <= 1, "rollup-cache-ttl", rollupCacheTtl);
+        require(historyRetention.toDays() >= 1, "history-retention", historyRetention);
         String scheme = publicUrl.getScheme() == null ? "" : publicUrl.getScheme().toLowerCase(Locale.ROOT);
         require(scheme.equals("http") || scheme.equals("https"), "public-url", publicUrl);
     }

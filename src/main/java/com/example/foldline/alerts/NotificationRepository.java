@@ -181,4 +181,10 @@ class NotificationRepository {
                 rs.getBoolean("muted"), rs.getTimestamp("created_at").toInstant(),
                 RuleRepository.instant(rs.getTimestamp("acknowledged_at")), rs.getString("acknowledged_by"));
     }
+
+    /** Deletes notifications created before {@code cutoff}, their deliveries and attempts with them (cascade). */
+    int deleteBefore(Instant cutoff) {
+        return jdbc.sql("DELETE FROM alert_notification WHERE created_at < :cutoff")
+                .param("cutoff", Timestamp.from(cutoff)).update();
+    }
 }

@@ -292,4 +292,10 @@ class RuleRepository {
     static String cut(String s, int max) {
         return s == null || s.length() <= max ? s : s.substring(0, max - 1) + "…";
     }
+
+    /** Deletes every rule's state changes recorded before {@code cutoff}; returns how many. */
+    int deleteHistoryBefore(Instant cutoff) {
+        return jdbc.sql("DELETE FROM alert_state_change WHERE changed_at < :cutoff")
+                .param("cutoff", Timestamp.from(cutoff)).update();
+    }
 }

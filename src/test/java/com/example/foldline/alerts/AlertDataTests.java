@@ -49,7 +49,8 @@ class AlertDataTests {
         AlertProperties properties = new AlertProperties(false, Duration.ofMinutes(1), Duration.ofSeconds(10),
                 Duration.ofMinutes(15), Duration.ofDays(2), ttl, URI.create("http://localhost:8080"),
                 new AlertProperties.Webhooks(List.of(), false, 6, Duration.ofSeconds(30), Duration.ofHours(1),
-                        Duration.ofSeconds(5), Duration.ofSeconds(10)), new AlertProperties.Mail("a@b.example"));
+                        Duration.ofSeconds(5), Duration.ofSeconds(10)), new AlertProperties.Mail("a@b.example"),
+                Duration.ofDays(400));
         return new AlertData(rollups, properties);
     }
 

@@ -77,6 +77,8 @@ abstract class AlertsContract {
     AlertEvaluator evaluator;
     @Autowired
     DeliveryDispatcher dispatcher;
+    @Autowired
+    AlertHistoryRetention retention;
 
     Site jump;
     Site flat;
@@ -190,6 +192,32 @@ abstract class AlertsContract {
         assertThat(payload.get("test").get("passed").asBoolean()).isTrue();
         assertThat(payload.get("link").stringValue()).isEqualTo("http://localhost:8080/?screen=health&site="
                 + jump.id() + "&from=2026-11-03&to=2026-11-09&metric=bounceRate&grain=hour");
+    }
+
+    @Test
+    void historyOlderThanTheRetentionPeriodIsDeletedWhileTheRuleKeepsItsState() {
+        RuleView rule = rules.create(jump.id(), jumpRule("Bounce jump", null, null, null));
+        evaluator.evaluateAll(at(jump, day9(13)));
+        assertThat(history(jump, rule.id())).hasSize(1);
+        assertThat(notificationKinds(jump)).containsExactly("RAISED");
+        Instant recorded = jdbc.sql("SELECT MAX(changed_at) FROM alert_state_change WHERE rule_id = :rule")
+                .param("rule", rule.id()).query(java.sql.Timestamp.class).single().toInstant();
+        Duration kept = Duration.ofDays(400);   // the default of foldline.alerts.history-retention
+
+        assertThat(retention.purge(recorded.plus(kept).minusSeconds(60)))
+                .isEqualTo(new AlertHistoryRetention.Purged(0, 0));
+        assertThat(history(jump, rule.id())).hasSize(1);
+
+        assertThat(retention.purge(recorded.plus(kept).plusSeconds(60)))
+                .isEqualTo(new AlertHistoryRetention.Purged(1, 1));
+        assertThat(history(jump, rule.id())).isEmpty();
+        assertThat(notificationKinds(jump)).isEmpty();
+        assertThat(rules.get(jump.id(), rule.id()).state()).isEqualTo(RuleState.RAISED);
+        // and it carries on from that state: the recovery is still announced once
+        evaluator.evaluateAll(at(jump, day9(14)));
+        evaluator.evaluateAll(at(jump, day9(15)));
+        assertThat(rules.get(jump.id(), rule.id()).state()).isEqualTo(RuleState.CALM);
+        assertThat(notificationKinds(jump)).containsExactly("CLEARED");
     }
 
     @Test
