@@ -37,8 +37,8 @@ export function render(ctx) {
   let rulesReload;
   let formReload;
   let tried;
-  heading(ctx, `${ctx.site.name}: alerts`, `A jump raises a rule once, its recovery clears it once. Times in the site's `
-    + 'time zone, ' + ctx.site.timezone);
+  heading(ctx, `${ctx.site.name}: alerts`, 'A jump raises a rule once, its recovery clears it once. Windows are in '
+    + `the site's time zone (${ctx.site.timezone}), other times in yours.`);
 
   const edit = (rule) => {
     editing = rule;
