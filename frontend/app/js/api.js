@@ -24,12 +24,14 @@ export function createApi(progress) {
     const headers = { Accept: 'application/json', 'X-Requested-With': 'XMLHttpRequest' };
     const token = document.cookie.match(/(?:^|; )XSRF-TOKEN=([^;]*)/);
     if (method !== 'GET' && token) headers['X-XSRF-TOKEN'] = decodeURIComponent(token[1]);
-    if (body) headers['Content-Type'] = 'application/json';
+    // a form (a file upload) goes as multipart, its boundary chosen by the browser
+    const form = body instanceof FormData;
+    if (body && !form) headers['Content-Type'] = 'application/json';
     progress.start();
     let res;
     try {
       res = await fetch(path + (query ? '?' + query : ''), {
-        method, headers, signal, redirect: 'manual', body: body && JSON.stringify(body) });
+        method, headers, signal, redirect: 'manual', body: form ? body : body && JSON.stringify(body) });
     } catch (e) {
       throw e.name === 'AbortError' ? e : apiError('Foldline could not be reached. Check the connection.');
     } finally {

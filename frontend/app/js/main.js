@@ -8,6 +8,7 @@ import { makeFormat } from './format.js';
 import { segmentBar } from './segment-bar.js';
 import { panel } from './panel.js';
 import { viewTools } from './view-tools.js';
+import { bell } from './bell.js';
 import * as sitesScreen from './screens/sites.js';
 import * as health from './screens/health.js';
 import * as density from './screens/density.js';
@@ -16,13 +17,15 @@ import * as engagement from './screens/engagement.js';
 import * as pages from './screens/pages.js';
 import * as geography from './screens/geography.js';
 import * as views from './screens/views.js';
+import * as alerts from './screens/alerts.js';
+import * as imports from './screens/imports.js';
 import * as settings from './screens/settings.js';
 import * as fit from './screens/fit.js';
 import * as account from './screens/account.js';
 import * as admin from './screens/admin.js';
 
-const SCREENS = [sitesScreen, health, density, depth, engagement, pages, geography, views, settings, fit, account,
-  admin];
+const SCREENS = [sitesScreen, health, density, depth, engagement, pages, geography, views, alerts, imports, settings,
+  fit, account, admin];
 const ROLES = ['VIEWER', 'EDITOR', 'ADMIN'];
 const locale = navigator.language || 'en';
 const $ = (id) => document.getElementById(id);
@@ -51,6 +54,8 @@ const siteOf = (state) => sites.find((s) => s.id === state.site) ?? null;
 const segment = segmentBar(navigate,
   () => todayIn(siteOf(current)?.timezone ?? Intl.DateTimeFormat().resolvedOptions().timeZone));
 $('segment').append(segment.el);
+const unread = bell(api, (site) => navigate({ screen: 'alerts', site: +site || current.site }));
+$('user').before(unread.el);
 
 function navigate(changes, { render = true } = {}) {
   const next = withChanges(current, changes);
@@ -73,7 +78,7 @@ function drawNav(state, role) {
   const item = (s, text = s.title) => link(withChanges(state, { screen: s.id }), text,
     { 'aria-current': s.id === state.screen && 'page', id: 'nav-' + s.id });
   // screens of one site are greyed out until a site is chosen; its settings only for its admins
-  $('nav').replaceChildren(h('ul', null, SCREENS.slice(0, 10).filter((s) => s !== settings || role === 'ADMIN')
+  $('nav').replaceChildren(h('ul', null, SCREENS.slice(0, 12).filter((s) => s !== settings || role === 'ADMIN')
     .map((s) => h('li', null, SITE_SCREENS.includes(s.id) && !state.site
       ? h('span.off', { text: s.title, 'aria-disabled': 'true' }) : item(s)))));
   $('user').replaceChildren(item(account, me.username), me.globalAdmin ? item(admin) : '');
@@ -106,7 +111,7 @@ async function route(state) {
   main.replaceChildren();
   main.dataset.screen = state.screen;
   const ctx = {
-    state, site, sites, me, role, api, main, signal: controller.signal, link, locale, navigate,
+    state, site, sites, me, role, api, main, signal: controller.signal, link, locale, navigate, unread: unread.poll,
     can: (r) => ROLES.indexOf(role) >= ROLES.indexOf(r),
     fmt: makeFormat(locale, site?.currency ?? 'EUR'),
     setTable: (id, on) => navigate({ tables: on ? [...current.tables, id] : current.tables.filter((t) => t !== id) },

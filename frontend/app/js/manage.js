@@ -4,13 +4,16 @@
 import { h, field, input, uid } from './dom.js';
 import { sentence } from './verdict.js';
 
-// fields: [name (the API's), label, type or [options], value, attrs]; numbers go as numbers (empty: null)
-export function form(id, button, fields, submit, done) {
+// fields: [name (the API's), label, type or [options: value or [value, label]], value, attrs]; numbers go as numbers
+// (empty: null), a file as its File; submit(values, the button pressed); `more`: further buttons
+export function form(id, button, fields, submit, done, more) {
   const message = h('p.form-message', { role: 'alert' });
   const rows = fields.map(([name, label, type = 'text', value = '', attrs]) => {
     const error = h('span.field-error', { id: uid('error') });
-    const c = type.map ? h('select', { id: uid(name), name }, type.map((o) => h('option', { value: o, text: o })))
-      : input({ name, type, value, checked: value === true, 'aria-describedby': error.id, ...attrs });
+    const a = { id: uid(name), name, value, 'aria-describedby': error.id, ...attrs };
+    const c = type.map ? h('select', a, type.map((o) => [o].flat())
+      .map(([v, text = v]) => h('option', { value: v, text, selected: v === value })))
+      : type === 'textarea' ? h('textarea', a) : input({ type, checked: value === true, ...a });
     const row = type === 'checkbox' ? h('label.check', null, c, label) : field(label, c);
     row.append(error);
     return { name, type, c, error, row };
@@ -19,17 +22,19 @@ export function form(id, button, fields, submit, done) {
     e.preventDefault();
     const values = {};
     for (const { name, type, c, error } of rows) {
-      values[name] = type === 'checkbox' ? c.checked : type === 'number' ? (c.value ? +c.value : null) : c.value;
+      values[name] = type === 'checkbox' ? c.checked : type === 'number' ? (c.value ? +c.value : null)
+        : c.files?.[0] ?? c.value;
       error.textContent = '';
       c.removeAttribute('aria-invalid');
     }
     message.textContent = '';
     try {
-      done(await submit(values));
+      done(await submit(values, e.submitter));
     } catch (err) {
       let left = err.message;
       for (const fe of err.errors ?? []) {
-        const r = rows.find((x) => x.name === fe.field);
+        // a nested field ("segment.device") goes to the field of its first part
+        const r = rows.find((x) => (fe.field + '.').startsWith(x.name + '.'));
         if (!r) continue;
         r.c.setAttribute('aria-invalid', true);
         r.error.textContent = sentence(fe.message);
@@ -37,7 +42,7 @@ export function form(id, button, fields, submit, done) {
       }
       message.textContent = left;
     }
-  } }, rows.map((r) => r.row), h('button', { type: 'submit', text: button }), message);
+  } }, rows.map((r) => r.row), h('button', { type: 'submit', text: button }), more, message);
 }
 
 // columns: [[heading, (row, index) → text or nodes]]; `none` says that there are no rows

@@ -4,9 +4,9 @@ import { isIsoDate, PRESETS, presetRange } from './range.js';
 import { METRIC_NAMES } from './metrics.js';
 
 export const SCREENS = ['sites', 'health', 'density', 'depth', 'engagement', 'pages', 'geography', 'views',
-  'settings', 'fit', 'account', 'admin'];
+  'alerts', 'imports', 'settings', 'fit', 'account', 'admin'];
 export const ANALYSIS = SCREENS.slice(1, 7);
-export const SITE_SCREENS = SCREENS.slice(1, 9);
+export const SITE_SCREENS = SCREENS.slice(1, 11);
 export const FILTERS = ['device', 'source', 'country', 'region', 'browser', 'variant'];
 export const DEVICES = ['desktop', 'phone', 'tablet', 'other'];
 export const SOURCES = ['search', 'social', 'direct', 'referral', 'email', 'paid', 'other'];

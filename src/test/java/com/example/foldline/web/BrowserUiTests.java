@@ -14,6 +14,7 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.time.Duration;
+import java.time.Instant;
 import java.time.LocalDate;
 import java.time.ZoneId;
 import java.time.ZonedDateTime;
@@ -53,6 +54,7 @@ import org.springframework.boot.test.web.server.LocalServerPort;
 import org.springframework.test.context.ActiveProfiles;
 import org.springframework.test.context.TestPropertySource;
 
+import com.example.foldline.alerts.AlertEvaluator;
 import com.example.foldline.sessions.Sessionizer;
 import com.example.foldline.sites.NewIngestKey;
 import com.example.foldline.sites.Site;
@@ -86,6 +88,7 @@ class BrowserUiTests {
     /** Labels from event data that would run script if the UI ever treated them as HTML. */
     static final String XSS_VARIANT = "<img src=x onerror=\"window.__xss='variant'\">";
     static final String XSS_PATH = "/news/<script>window.__xss='path'</script>";
+    static final String XSS_RULE = "<b onmouseover=\"window.__xss='rule'\">Loud</b> bounce";
     static final String[] PATHS = {"/", "/recipes/fish-stew", "/recipes/lemon-tart", "/news/harbour-works",
             "/news/market-prices", "/guides/slow-cooking", "/guides/knife-care", "/recipes/bean-soup",
             "/recipes/bread", "/news/ferry-timetable", "/guides/storing-herbs", "/recipes/sardines", XSS_PATH};
@@ -100,6 +103,8 @@ class BrowserUiTests {
     Sessionizer sessionizer;
     @Autowired
     ObjectMapper json;
+    @Autowired
+    AlertEvaluator evaluator;
 
     ChromeDriver driver;
     Path downloads;
@@ -702,6 +707,115 @@ class BrowserUiTests {
         signIn("/");
     }
 
+    @Test
+    @Order(19)
+    void alertsListTheRulesTryOneOnHistoryAndAcknowledgingLowersTheBell() throws Exception {
+        // two rules that hold on the seeded data (bounce about 35 %, well above 15 %), judged once: each is raised
+        String above = "\"window\": \"P2D\", \"condition\": {\"type\": \"above\", \"threshold\": 0.15}, "
+                + "\"guard\": {\"minSessions\": 50}";
+        assertThat(postApi(gazette, "/alerts/rules", "{\"name\": \"Bounce above 15 %\", " + above + "}")
+                .statusCode()).isEqualTo(201);
+        assertThat(postApi(gazette, "/alerts/rules", "{\"name\": \"Phone and desktop bounce\", \"segment\": "
+                + "{\"device\": [\"phone\", \"desktop\"]}, " + above + "}").statusCode()).isEqualTo(201);
+        evaluator.evaluateAll(Instant.now());
+        open("/?screen=alerts&site=" + gazette.id());
+        WebElement rules = driver.findElement(By.id("alert-rules"));
+        assertThat(rules.getText()).contains("Bounce above 15 %", "Phone and desktop bounce", "Raised",
+                "in breach; notified");
+        waitFor("bell", d -> "2".equals(d.findElement(By.id("bell-count")).getText()));
+        assertThat(driver.findElement(By.id("alert-notifications")).getText())
+                .contains("Raised: Bounce above 15 % on Harbour Gazette");
+
+        // acknowledging one notification lowers the bell's count
+        driver.findElement(By.cssSelector("#alert-notifications button")).click();
+        waitFor("bell lowered", d -> "1".equals(d.findElement(By.id("bell-count")).getText()));
+        assertThat(driver.findElement(By.id("alert-notifications")).getText()).contains("by admin");
+        js("window.scrollTo(0, 0)");
+        screenshot("25-alerts");
+
+        // "try this rule on the last 30 days": the chart and the count are the back-test's
+        fill("#rule-form", "name", "Bounce above 30 %");
+        new Select(driver.findElement(By.cssSelector("#rule-form [name='condition.type']"))).selectByValue("above");
+        fill("#rule-form", "'condition.threshold'", "30");
+        fill("#rule-form", "window", "24");
+        fill("#rule-form", "'guard.minSessions'", "50");
+        fill("#rule-form", "clearsAfter", "0");
+        driver.findElement(By.cssSelector("#rule-form button[name=try]")).click();
+        waitFor("back-test", d -> !d.findElements(By.id("backtest-count")).isEmpty());
+        JsonNode backtest = json.readTree(postApi(gazette, "/alerts/backtest", "{\"rule\": {\"name\": \"x\", "
+                + "\"window\": \"PT24H\", \"condition\": {\"type\": \"above\", \"threshold\": 0.3}, "
+                + "\"guard\": {\"minSessions\": 50}, \"clearsAfter\": \"PT0S\"}}").body());
+        assertThat(backtest.get("raised").asInt()).isPositive();
+        assertThat(driver.findElement(By.id("backtest-count")).getText()).startsWith(backtest.get("raised").asInt()
+                + " raised, " + backtest.get("cleared").asInt() + " cleared in " + backtest.get("windows").asInt()
+                + " hourly windows");
+        assertThat(points("chart-backtest", 0)).isEqualTo(backtest.get("points").size());
+        assertThat(doubles("return Chart.getChart('chart-backtest').data.datasets[2].data.filter(v => v !== null)"))
+                .hasSize(backtest.get("raised").asInt());
+        js("window.scrollTo(0, 0)");
+        screenshot("26-alerts-backtest");
+
+        // a rule saved from the form; markup in its name is shown as text
+        fill("#rule-form", "name", XSS_RULE);
+        driver.findElement(By.cssSelector("#rule-form button[type=submit]")).click();
+        waitFor("saved rule", d -> d.findElement(By.id("alert-rules")).getText().contains(XSS_RULE));
+        assertNoScriptRan();
+        // its definition as the form wrote it: a threshold of 30 % and a one-day window
+        HttpResponse<String> list = getApi(gazette, "/alerts/rules");
+        JsonNode saved = null;
+        for (JsonNode r : json.readTree(list.body())) {
+            saved = XSS_RULE.equals(r.get("definition").get("name").stringValue()) ? r.get("definition") : saved;
+        }
+        assertThat(saved).isNotNull();
+        assertThat(saved.get("condition").get("threshold").asDouble()).isEqualTo(0.3);
+        assertThat(saved.get("window").stringValue()).isEqualTo("PT24H");
+        assertThat(saved.get("clearsAfter").stringValue()).isEqualTo("PT0S");
+
+        // edit: the form holds the rule in people's units; the change is saved in the API's
+        ruleRow(XSS_RULE).findElement(By.xpath(".//button[text()='Edit']")).click();
+        waitFor("editing", d -> d.findElement(By.cssSelector("#rule-form [name='condition.threshold']"))
+                .getDomProperty("value").equals("30"));
+        fill("#rule-form", "'condition.threshold'", "31.5");
+        driver.findElement(By.cssSelector("#rule-form button[type=submit]")).click();
+        waitFor("changed", d -> d.findElement(By.id("alert-rules")).getText().contains("above 0.315"));
+        // pause one rule, mute another for eight hours
+        ruleRow("Bounce above 15 %").findElement(By.xpath(".//button[text()='Pause']")).click();
+        waitFor("paused", d -> ruleRow("Bounce above 15 %").getText().contains("Paused"));
+        new Select(ruleRow("Phone and desktop bounce").findElement(By.tagName("select"))).selectByValue("8");
+        waitFor("muted", d -> ruleRow("Phone and desktop bounce").getText().contains("Muted until"));
+        js("window.scrollTo(0, 0)");
+        screenshot("27-alerts-rule-saved");
+    }
+
+    @Test
+    @Order(20)
+    void anImportUploadedThroughThePanelShowsItsProgressAndEndsDone(@TempDir Path temp) throws Exception {
+        // 20 days of sessions of Lantern Weekly under new ids, and two lines the parser refuses
+        List<String> lines = new ArrayList<>(sessions(lantern, 20, 30, 11L).stream()
+                .map(l -> l.replace("\"id\":\"s-", "\"id\":\"imported-")).toList());
+        lines.add(5, "{\"type\": \"session\", \"id\": \"no-fields\"}");
+        lines.add("not json");
+        Path file = Files.write(temp.resolve("lantern-history.ndjson"), lines);
+        open("/?screen=imports&site=" + lantern.id());
+        driver.findElement(By.cssSelector("#import-form input[type=file]")).sendKeys(file.toString());
+        driver.findElement(By.cssSelector("#import-form button[type=submit]")).click();
+        waitFor("job listed", d -> !d.findElements(By.cssSelector("#import-jobs progress")).isEmpty());
+        screenshot("28-imports-started");
+        waitFor("job done", d -> d.findElement(By.cssSelector("#import-jobs .badge")).getText().equals("done"));
+        JsonNode job = json.readTree(getApi(lantern, "/imports").body()).get(0);
+        assertThat(job.get("state").stringValue()).isEqualTo("done");
+        assertThat(job.get("stored").asLong()).isEqualTo(lines.size() - 2);
+        assertThat(job.get("rejected").asLong()).isEqualTo(2);
+        String row = driver.findElement(By.cssSelector("#import-jobs tbody tr")).getText();
+        assertThat(row).contains("lantern-history.ndjson", "done", "100%",
+                String.format(java.util.Locale.US, "%,d", lines.size() - 2));
+        assertThat(driver.findElement(By.cssSelector("#import-jobs progress")).getDomProperty("value")).isEqualTo("1");
+        assertThat(driver.findElement(By.cssSelector("#import-jobs a[download]")).getDomAttribute("href"))
+                .isEqualTo(job.get("rejections").stringValue() + "?format=csv");
+        js("window.scrollTo(0, 0)");
+        screenshot("29-imports-done");
+    }
+
     // ------------------------------------------------------------------------------------------------ helpers
 
     String base() {
@@ -736,6 +850,15 @@ class BrowserUiTests {
         input.sendKeys(value);
     }
 
+    WebElement ruleRow(String name) {
+        return driver.findElement(By.xpath("//table[@id='alert-rules']//tr[.//strong[text()=" + xpathText(name) + "]]"));
+    }
+
+    /** A string literal of XPath 1.0 for any text (which has no escapes): concat() of parts without apostrophes. */
+    static String xpathText(String text) {
+        return "concat('" + text.replace("'", "', \"'\", '") + "', '')";
+    }
+
     WebElement viewRow(String name) {
         return driver.findElement(By.xpath("//table[@id='view-list']//tr[.//a[text()='" + name + "']]"));
     }
@@ -750,6 +873,21 @@ class BrowserUiTests {
                 HttpResponse.BodyHandlers.ofString());
         assertThat(response.statusCode()).as(response.body()).isEqualTo(201);
         return json.readTree(response.body()).get("link").stringValue();
+    }
+
+    HttpResponse<String> postApi(Site site, String path, String body) throws Exception {
+        return http.send(authorized(site, path).header("Content-Type", "application/json")
+                .POST(HttpRequest.BodyPublishers.ofString(body)).build(), HttpResponse.BodyHandlers.ofString());
+    }
+
+    HttpResponse<String> getApi(Site site, String path) throws Exception {
+        return http.send(authorized(site, path).build(), HttpResponse.BodyHandlers.ofString());
+    }
+
+    /** A request under the site's API with the admin's basic auth (no session, no CSRF token). */
+    HttpRequest.Builder authorized(Site site, String path) {
+        return HttpRequest.newBuilder(URI.create(base() + "/api/v1/sites/" + site.id() + path)).header("Authorization",
+                "Basic " + Base64.getEncoder().encodeToString("admin:admin-secret".getBytes(StandardCharsets.UTF_8)));
     }
 
     void open(String address) {
