@@ -101,19 +101,42 @@ record RuleDefinition(String name, Metric metric, Map<String, List<String>> segm
                 clearsAfter.toString(), webhookIds, emails, enabled);
     }
 
-    /** A short sentence: "bounceRate over PT1H rises by ≥ 5 pp against the same window on the previous 7 days". */
+    /**
+     * A short sentence in people's words: "Bounce rate over the last 2 days (device: desktop, phone) above 15%", or
+     * "... rises by at least 5 percentage points against the same hours on the previous 7 days".
+     */
     String describe() {
-        String w = windowHours % 24 == 0 ? (windowHours / 24) + " d" : windowHours + " h";
-        String subject = metric.apiName() + " over the last " + w
-                + (segment.isEmpty() ? "" : " (" + SegmentSpec.query(segment).replace('&', ' ') + ")");
+        String w = windowHours % 24 == 0 ? plural(windowHours / 24, "day") : plural(windowHours, "hour");
+        StringBuilder filter = new StringBuilder();
+        segment.forEach((dim, values) -> filter.append(filter.isEmpty() ? " (" : "; ").append(dim).append(": ")
+                .append(String.join(", ", values)));
+        String subject = WORDS.getOrDefault(metric, metric.apiName()) + " over the last " + w
+                + (filter.isEmpty() ? "" : filter + ")");
         return switch (condition) {
-            case ABOVE -> subject + " above " + threshold;
-            case BELOW -> subject + " below " + threshold;
-            case JUMP -> subject + (direction == Direction.UP ? " rises" : " falls") + " by at least " + by
+            case ABOVE -> subject + " above " + level(threshold);
+            case BELOW -> subject + " below " + level(threshold);
+            case JUMP -> subject + (direction == Direction.UP ? " rises" : " falls") + " by at least " + plain(by)
                     + (proportion() ? " percentage points" : " %") + " against "
                     + (baseline == BaselineKind.TRAILING_DAYS ? "the same hours on the previous " + baselinePeriods
                     + " days" : "the same hours of the week over the previous " + baselinePeriods + " weeks");
         };
+    }
+
+    private static final Map<Metric, String> WORDS = Map.of(Metric.BOUNCE_RATE, "Bounce rate",
+            Metric.PAGES_PER_SESSION, "Pages per session", Metric.SESSION_RPM, "Session RPM",
+            Metric.VIEWABILITY_RATE, "Viewability rate", Metric.CTR, "CTR");
+
+    private String level(double v) {
+        return proportion() ? plain(v * 100) + "%" : plain(v);
+    }
+
+    private static String plain(double v) {
+        return java.math.BigDecimal.valueOf(v).round(new java.math.MathContext(6)).stripTrailingZeros()
+                .toPlainString();
+    }
+
+    private static String plural(int n, String unit) {
+        return n + " " + unit + (n == 1 ? "" : "s");
     }
 
     /** Validates a request; throws {@link BadRequestException} naming every bad field. */

@@ -24,6 +24,19 @@ class AlertRuleTests {
                 null, null)));
     }
 
+    @Test
+    void aRuleDescribesItselfInPeoplesWords() {
+        var segment = new java.util.LinkedHashMap<String, List<String>>();
+        segment.put("device", List.of("desktop", "phone"));
+        RuleDefinition above = RuleDefinition.from(new RuleRequest("r", "bounceRate", segment, "PT48H",
+                new RuleRequest.Condition("above", 0.315, null, null, null, null), null, null, null, null, null, null));
+        assertThat(above.describe()).isEqualTo("Bounce rate over the last 2 days (device: desktop, phone) above 31.5%");
+        RuleDefinition jump = RuleDefinition.from(new RuleRequest("r", "sessionRpm", Map.of(), "PT1H",
+                new RuleRequest.Condition("jump", null, "down", 10.0, null, null), null, null, null, null, null, null));
+        assertThat(jump.describe()).isEqualTo("Session RPM over the last 1 hour falls by at least 10 % against the "
+                + "same hours on the previous 7 days");
+    }
+
     private static Evaluation at(int hour, Verdict verdict) {
         LocalDateTime end = T0.plusHours(hour);
         return new Evaluation(end.minusHours(1), end, verdict, verdict.name(), 0.5, 0.4, 500L, 3500L, 250, 500, 10.0,

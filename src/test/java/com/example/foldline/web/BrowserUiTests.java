@@ -777,7 +777,7 @@ class BrowserUiTests {
                 .getDomProperty("value").equals("30"));
         fill("#rule-form", "'condition.threshold'", "31.5");
         driver.findElement(By.cssSelector("#rule-form button[type=submit]")).click();
-        waitFor("changed", d -> d.findElement(By.id("alert-rules")).getText().contains("above 0.315"));
+        waitFor("changed", d -> d.findElement(By.id("alert-rules")).getText().contains("above 31.5%"));
         // pause one rule, mute another for eight hours
         ruleRow("Bounce above 15 %").findElement(By.xpath(".//button[text()='Pause']")).click();
         waitFor("paused", d -> ruleRow("Bounce above 15 %").getText().contains("Paused"));
