@@ -82,7 +82,7 @@ public class MetricsService {
                     Money.finite(Metric.PAGES_PER_SESSION.value(t)), Money.finite(rpm), Money.decimal(rpm)));
         }
         long sessions = answer.total().sessions();
-        FitSummary fit = KneeAnalysis.density(points, model);
+        FitSummary fit = knees.densityFit(points, model);
         CapAdvice recommendation = sessions >= MIN_SESSIONS ? knees.recommendation(r, answer.total()) : null;
         return new Answers.DensityAnswer(scope(r, answer.plan()), points, sessions,
                 "Wilson score interval (1927), 95%", fit, recommendation, thin(sessions));
