@@ -18,6 +18,10 @@ public record CapAdvice(Integer cap, Double probabilityBest, Double currentSessi
                         String pairSummary, int resamples, String caution, String model,
                         Double pairExpectedGainMicros) {
 
+    public CapAdvice {
+        caps = caps == null ? null : List.copyOf(caps); // answers are shared through the fit cache: keep them immutable
+    }
+
     /** The model behind {@code cap} and {@code caps}. */
     public static final String MODEL = "entry/later model at equal caps: V(k) = revenue per entry page(k) + "
             + "(1 - bounce(k)) * revenue per later page(k) / later exit rate(k)";
