@@ -5,6 +5,7 @@ import java.util.List;
 import java.util.Locale;
 import java.util.OptionalDouble;
 
+import org.springframework.beans.factory.annotation.Value;
 import org.springframework.stereotype.Component;
 
 import com.example.foldline.sessions.Dim;
@@ -29,6 +30,12 @@ import com.example.foldline.stats.Slope;
 /**
  * Runs the statistics core on metric answers: the knee of bounce against entry-page ads, the ad-cap recommendation,
  * and knees of saturating curves. Thin data gives a notice instead of a knee.
+ *
+ * <p>The density fit and the ad-cap advice are pure functions of the aggregated counts they are given, so their
+ * answers are kept in a small least-recently-used cache keyed by those counts (and the model asked for): a repeated
+ * view of the same segment and range skips the fit and the resampling, and any change in the data changes the key,
+ * so a cached answer can never be stale. {@code foldline.metrics.fit-cache-size} (default 256 entries of each kind,
+ * 0 turns it off) bounds it.
  */
 @Component
 class KneeAnalysis {
@@ -37,11 +44,71 @@ class KneeAnalysis {
     static final long MIN_POINT_SESSIONS = 30;
     static final long MIN_TOTAL_SESSIONS = MetricsService.MIN_SESSIONS;
     static final int BOOTSTRAP = 200;
+    /**
+     * Entry sessions and later pages an ad count needs, on each side, before the advice values it as a cap for every
+     * page (docs/methods.md §11). At 300 sessions a 40% bounce rate is known to about ±5.5 points (Wilson, 95%); the
+     * resamples carry that uncertainty into the probability that the cap is best.
+     */
+    static final long MIN_CAP_DATA = 300;
 
     private final Rollups rollups;
+    private final Lru<List<Object>, FitSummary> densityFits;
+    private final Lru<List<Object>, CapAdvice> advice;
 
-    KneeAnalysis(Rollups rollups) {
+    KneeAnalysis(Rollups rollups, @Value("${foldline.metrics.fit-cache-size:256}") int cacheSize) {
+        if (cacheSize < 0) {
+            throw new IllegalArgumentException("foldline.metrics.fit-cache-size must be >= 0, was " + cacheSize);
+        }
         this.rollups = rollups;
+        this.densityFits = new Lru<>(cacheSize);
+        this.advice = new Lru<>(cacheSize);
+    }
+
+    /** A bounded least-recently-used map, synchronised; size 0 keeps nothing. */
+    private static final class Lru<K, V> {
+        private final int size;
+        private final java.util.LinkedHashMap<K, V> map;
+
+        Lru(int size) {
+            this.size = size;
+            this.map = new java.util.LinkedHashMap<>(16, 0.75f, true) {
+                @Override
+                protected boolean removeEldestEntry(java.util.Map.Entry<K, V> eldest) {
+                    return size() > Lru.this.size;
+                }
+            };
+        }
+
+        V get(K key, java.util.function.Supplier<V> compute) {
+            if (size == 0) {
+                return compute.get();
+            }
+            synchronized (map) {
+                V hit = map.get(key);
+                if (hit != null) {
+                    return hit;
+                }
+            }
+            V value = compute.get(); // outside the lock: two first requests may both compute, with equal results
+            if (value != null) {
+                synchronized (map) {
+                    map.put(key, value);
+                }
+            }
+            return value;
+        }
+    }
+
+    /** {@link #density(List, String)} through the cache, keyed by the points and the model. */
+    FitSummary densityFit(List<Answers.DensityPoint> points, String model) {
+        List<Object> key = new ArrayList<>(1 + 3 * points.size());
+        key.add(model);
+        for (Answers.DensityPoint p : points) {
+            key.add(p.entryAds());
+            key.add(p.sessions());
+            key.add(p.bounces());
+        }
+        return densityFits.get(key, () -> density(points, model));
     }
 
     /** Segmented logistic (default) or weighted linear fit of bounce rate on ads on the entry page. */
@@ -156,10 +223,13 @@ class KneeAnalysis {
         return new KneeReport(kneedle, linear(x, y, w, unit, 1, false));
     }
 
-    /** The ad-cap recommendation from page-level rollups of the same segment. */
+    /**
+     * The ad-cap recommendation from page-level rollups of the same segment: one cap for every page read from the
+     * entry/later model where both caps are equal, and the best pair, from one shared set of resamples
+     * ({@link AdCapRecommender#advise}).
+     */
     CapAdvice recommendation(MetricRequest r, SessionTotals current) {
         Rollups.PageAnswer pages = rollups.pages(r.site().id(), r.filter(), List.of(Dim.ADS, Dim.POSITION), false);
-        List<AdCapRecommender.PageStats> all = new ArrayList<>();
         List<AdCapRecommender.EntryStats> entry = new ArrayList<>();
         List<AdCapRecommender.PageStats> later = new ArrayList<>();
         java.util.Map<Integer, PageTotals> byAds = new java.util.TreeMap<>();
@@ -173,42 +243,46 @@ class KneeAnalysis {
                 later.add(new AdCapRecommender.PageStats(ads, t.pageviews(), t.exits(), t.revenueMicros(), t.revenueSq()));
             }
         }
-        byAds.forEach((ads, t) -> all.add(new AdCapRecommender.PageStats(ads, t.pageviews(), t.exits(),
-                t.revenueMicros(), t.revenueSq())));
-        if (all.isEmpty()) {
+        if (byAds.isEmpty()) {
             return null;
         }
         OptionalDouble perSession = current.sessions() == 0 ? OptionalDouble.empty()
                 : OptionalDouble.of((double) current.revenueMicros() / current.sessions());
-        AdCapRecommender.Options options = AdCapRecommender.Options.defaults();
-        AdCapRecommender.Recommendation rec = AdCapRecommender.recommend(all, perSession, options);
+        // the answer depends on these inputs only (the options are fixed)
+        List<Object> key = List.of(entry, later, perSession);
+        return advice.get(key, () -> advise(entry, later, byAds, perSession));
+    }
+
+    private static CapAdvice advise(List<AdCapRecommender.EntryStats> entry, List<AdCapRecommender.PageStats> later,
+                                    java.util.Map<Integer, PageTotals> byAds, OptionalDouble perSession) {
+        AdCapRecommender.Advice advice = AdCapRecommender.advise(entry, later, perSession,
+                AdCapRecommender.Options.defaults().withMinSessions(MIN_CAP_DATA).withMinPages(MIN_CAP_DATA));
+        AdCapRecommender.SameCapRecommendation rec = advice.sameCap();
         List<CapAdvice.CapOption> caps = new ArrayList<>();
         Double probability = null;
-        for (AdCapRecommender.CapValue c : rec.caps()) {
+        for (AdCapRecommender.SameCapValue c : rec.caps()) {
+            PageTotals all = byAds.get(c.adCount());
             caps.add(new CapAdvice.CapOption(c.adCount(), c.status().name().toLowerCase(Locale.ROOT), c.note(),
-                    c.pages(), finite(c.exitRate()), finite(c.revenuePerPageMicros()),
-                    c.sessionRpm() == null ? null : micros(c.sessionRpm().estimate()),
-                    c.sessionRpm() == null ? null : micros(c.sessionRpm().lower()),
-                    c.sessionRpm() == null ? null : micros(c.sessionRpm().upper()), finite(c.probabilityBest())));
+                    c.pages(), all.pageviews() == 0 ? null : finite((double) all.exits() / all.pageviews()),
+                    all.pageviews() == 0 ? null : finite((double) all.revenueMicros() / all.pageviews()),
+                    micros(c.sessionRpm().estimate()), micros(c.sessionRpm().lower()), micros(c.sessionRpm().upper()),
+                    finite(c.probabilityBest()), c.entrySessions(), c.laterPages(), finite(c.bounceRate()),
+                    finite(c.laterExitRate()), finite(c.expectedPagesPerSession())));
             if (rec.recommendedCap().isPresent() && rec.recommendedCap().get() == c.adCount()) {
                 probability = finite(c.probabilityBest());
             }
         }
+        AdCapRecommender.TwoCapRecommendation two = advice.pair();
         Integer entryCap = null;
         Integer laterCap = null;
         Double pairProbability = null;
         Double pairRpm = null;
-        String pairSummary = null;
-        if (!entry.isEmpty() && !later.isEmpty()) {
-            AdCapRecommender.TwoCapRecommendation two = AdCapRecommender.recommendEntryAndLater(entry, later,
-                    perSession, options);
-            pairSummary = two.summary();
-            if (two.recommended().isPresent()) {
-                entryCap = two.recommended().get().entryAdCount();
-                laterCap = two.recommended().get().laterAdCount();
-                pairProbability = finite(two.recommended().get().probabilityBest());
-                pairRpm = micros(two.recommended().get().sessionRpm().estimate());
-            }
+        String pairSummary = entry.isEmpty() || later.isEmpty() ? null : two.summary();
+        if (two.recommended().isPresent()) {
+            entryCap = two.recommended().get().entryAdCount();
+            laterCap = two.recommended().get().laterAdCount();
+            pairProbability = finite(two.recommended().get().probabilityBest());
+            pairRpm = micros(two.recommended().get().sessionRpm().estimate());
         }
         // the recommender works in currency units per 1,000 sessions; the API gives micro-units like every money field
         return new CapAdvice(rec.recommendedCap().orElse(null), probability,
@@ -216,7 +290,8 @@ class KneeAnalysis {
                 rec.expectedGainRpm().map(i -> micros(i.estimate())).orElse(null),
                 rec.expectedGainRpm().map(i -> micros(i.lower())).orElse(null),
                 rec.expectedGainRpm().map(i -> micros(i.upper())).orElse(null), rec.summary(), caps, entryCap,
-                laterCap, pairProbability, pairRpm, pairSummary, rec.resamples(), rec.caution());
+                laterCap, pairProbability, pairRpm, pairSummary, rec.resamples(), rec.caution(), CapAdvice.MODEL,
+                two.expectedGainRpm().map(i -> micros(i.estimate())).orElse(null));
     }
 
     private static List<FitSummary.Candidate> candidates(List<CandidateModel> models) {

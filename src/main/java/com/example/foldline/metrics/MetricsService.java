@@ -82,7 +82,7 @@ public class MetricsService {
                     Money.finite(Metric.PAGES_PER_SESSION.value(t)), Money.finite(rpm), Money.decimal(rpm)));
         }
         long sessions = answer.total().sessions();
-        FitSummary fit = KneeAnalysis.density(points, model);
+        FitSummary fit = knees.densityFit(points, model);
         CapAdvice recommendation = sessions >= MIN_SESSIONS ? knees.recommendation(r, answer.total()) : null;
         return new Answers.DensityAnswer(scope(r, answer.plan()), points, sessions,
                 "Wilson score interval (1927), 95%", fit, recommendation, thin(sessions));
@@ -102,7 +102,9 @@ public class MetricsService {
                 continue;
             }
             double perSession = (double) t.revenueMicros() / t.sessions();
-            Double marginal = pages == 1 ? perSession : previous == null ? null : perSession - previous;
+            // boxed on purpose: with a primitive branch the conditional unboxes a null previous and throws
+            Double marginal = pages == 1 ? Double.valueOf(perSession)
+                    : previous == null ? null : Double.valueOf(perSession - previous);
             points.add(new Answers.DepthPoint(pages, pages == 11 ? "11+" : Integer.toString(pages), t.sessions(),
                     total == 0 ? null : (double) t.sessions() / total, perSession, Money.decimal(perSession),
                     marginal, marginal == null ? null : Money.decimal(marginal)));

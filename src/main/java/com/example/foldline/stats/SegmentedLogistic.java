@@ -194,10 +194,10 @@ public final class SegmentedLogistic {
             double lo = data.u[j];
             double hi = data.u[j + 1];
             double[] w = warm;
-            Minimum min = brent(psi -> irls(design(data, new double[] {psi}), data, w).deviance(), lo, hi);
+            Minimum min = brent(psi -> irls(design(data, new double[] {psi}), data, w, false).deviance(), lo, hi);
             double[] cands = {lo, hi, min.x};
             for (double c : cands) {
-                Glm g = irls(design(data, new double[] {c}), data, w);
+                Glm g = irls(design(data, new double[] {c}), data, w, false);
                 if (best == null || g.deviance() < best.glm.deviance()) {
                     best = new Profile(c, g);
                 }
@@ -326,6 +326,16 @@ public final class SegmentedLogistic {
     }
 
     private static Glm irls(double[][] cols, Data data, double[] start) {
+        return irls(cols, data, start, true);
+    }
+
+    /**
+     * IRLS from {@code start} (or from the empirical logits). With {@code covariance} false the closing QR at the
+     * estimate is skipped and the fit carries no covariance: the profile search and the Davies test need only the
+     * deviance and the coefficients, and that QR is about a fifth of their cost. Rank deficiency is still detected by
+     * the QR of the iterations.
+     */
+    private static Glm irls(double[][] cols, Data data, double[] start, boolean covariance) {
         int m = data.size();
         int p = cols.length;
         double[] eta;
@@ -366,6 +376,9 @@ public final class SegmentedLogistic {
             if (done) {
                 break;
             }
+        }
+        if (!covariance) {
+            return new Glm(beta, dev, mus(eta), null, true);
         }
         // Covariance at the final estimate (dispersion 1).
         double[][] wc = new double[p][m];
@@ -410,7 +423,7 @@ public final class SegmentedLogistic {
             double p = lo + (hi - lo) * i / (k - 1);
             double[][] base = design(data, new double[] {p});
             double[][] cols = {base[2], base[0], base[1]};
-            Glm g = irls(cols, data, null);
+            Glm g = irls(cols, data, null, false);
             if (!g.fullRank()) {
                 continue;
             }
@@ -453,7 +466,7 @@ public final class SegmentedLogistic {
             }
             // Rows are not needed for the profile; the aggregated counts stand in for them.
             Data sample = new Data(data.u, s, data.n, data.u, s, data.n);
-            Glm line = irls(design(sample, new double[0]), sample, null);
+            Glm line = irls(design(sample, new double[0]), sample, null, false);
             draws[ok++] = profile(sample, h, line.beta()).psi;
         }
         double[] result = Arrays.copyOf(draws, ok);

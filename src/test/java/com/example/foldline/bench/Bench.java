@@ -19,6 +19,7 @@ public final class Bench {
             case "stats" -> {
                 com.example.foldline.stats.StatsBenchmark.main(rest);
                 com.example.foldline.stats.StatsBenchmarkB.main(rest);
+                com.example.foldline.stats.DensityStatsBenchmark.main(rest);
             }
             default -> throw new IllegalArgumentException("unknown benchmark " + name + " (ingest, metrics, imports, stats)");
         }

@@ -15,6 +15,7 @@ import org.springframework.boot.test.context.SpringBootTest;
 import org.springframework.test.context.ActiveProfiles;
 
 import com.example.foldline.metrics.Answers;
+import com.example.foldline.metrics.CapAdvice;
 import com.example.foldline.metrics.FitSummary;
 import com.example.foldline.metrics.MetricRequestFactory;
 import com.example.foldline.metrics.MetricsService;
@@ -76,6 +77,78 @@ class DemoGroundTruthTests {
         assertThat(desktop.breakpoints().get(0).lower()).isLessThanOrEqualTo(7.0);
         assertThat(desktop.breakpoints().get(0).upper()).isGreaterThanOrEqualTo(7.0);
         assertThat(phone.breakpoints().get(0).estimate()).isLessThan(desktop.breakpoints().get(0).estimate());
+    }
+
+    /**
+     * The value of a session (up to a constant factor) if every page carried k ads, from the ground truth in
+     * docs/demo.md alone: revenue per page ∝ k/(1 + 0.06k) · E[0.15 + 0.85·view], view = max(0.05, 0.78(1 − e^(−t/7))
+     * − 0.015k) with engaged time t = min(600, median·e^(0.9Z)) (median 18 s on phones, 28 s elsewhere); bounce at k
+     * entry-page ads averaged over the source mix (search 40%, social 25%, direct 20%, referral 10%, email 5%), the
+     * recipes site's variants (half "stacked") and, for phones on the news site, the 3 incident days of the 60; after
+     * a non-bounce a geometric number of later pages with mean 1/(1 − carry-on), carry-on = 0.62 − 0.025k.
+     */
+    static double trueSessionValue(DemoScenario.SiteSpec spec, String device, int k) {
+        double median = device.equals("phone") ? 18 : 28;
+        double sum = 0;
+        double weights = 0;
+        for (int i = -4000; i <= 4000; i++) { // E over Z ~ N(0, 1) by the trapezoid rule on [−8, 8]
+            double z = i / 500.0;
+            double w = Math.exp(-z * z / 2);
+            double t = Math.min(600, median * Math.exp(0.9 * z));
+            sum += w * (0.15 + 0.85 * Math.max(0.05, 0.78 * (1 - Math.exp(-t / 7)) - 0.015 * k));
+            weights += w;
+        }
+        double perPage = k / (1 + 0.06 * k) * sum / weights;
+        String[] sources = {"search", "social", "direct", "referral", "email"};
+        double[] share = {0.40, 0.25, 0.20, 0.10, 0.05};
+        double bounce = 0;
+        for (int s = 0; s < sources.length; s++) {
+            double b = DemoScenario.BASE_BOUNCE.get(device) + DemoScenario.SOURCE_BOUNCE.get(sources[s])
+                    + DemoScenario.BOUNCE_RISE_PER_AD * Math.max(0, k - spec.kneeByDevice().get(device));
+            double stacked = b + (device.equals("phone") && sources[s].equals("social") ? -0.10
+                    : device.equals("desktop") && sources[s].equals("search") ? 0.06 : 0);
+            double mixed = spec.variants().isEmpty() ? clip(b) : (clip(b) + clip(stacked)) / 2;
+            if (spec.key().equals("news") && device.equals("phone")) {
+                mixed = (57 * mixed + 3 * clip(b + DemoScenario.INCIDENT_PHONE_BOUNCE)) / 60;
+            }
+            bounce += share[s] * mixed;
+        }
+        double carryOn = Math.max(0.05, 0.62 - 0.025 * k);
+        return perPage * (1 + (1 - bounce) / (1 - carryOn));
+    }
+
+    private static double clip(double p) {
+        return Math.max(0.02, Math.min(0.98, p));
+    }
+
+    @Test
+    void theAdCapAdviceLandsNearTheSimulatedOptimumForEachDevice() {
+        // planted (docs/demo.md): later pages carry 0–10 ads, so one cap for every page is judged on 0..10; the true
+        // value peaks at 8 (9 on the gear site's desktops) and stays within 3% of its peak from 7 to 10 ads
+        for (DemoScenario.SiteSpec spec : DemoScenario.SITES) {
+            if (spec.key().equals("gear")) {
+                continue; // 350 sessions a day: too thin per device and ad count for advice at scale 1
+            }
+            for (String device : List.of("phone", "desktop", "tablet")) {
+                double best = 0;
+                for (int k = 0; k <= 10; k++) {
+                    best = Math.max(best, trueSessionValue(spec, device, k));
+                }
+                CapAdvice advice = density(spec.domain(), "device=" + device).recommendation();
+                if (advice.cap() == null) {
+                    // not enough data is an answer: allowed for the thin tablet segment only
+                    assertThat(device).as(spec.domain() + " " + advice.summary()).isEqualTo("tablet");
+                    continue;
+                }
+                assertThat(advice.cap()).as(spec.domain() + " " + device).isBetween(0, 10);
+                // tablets are a tenth of the sessions (a few hundred per entry-ad count here): a looser bound
+                double floor = device.equals("tablet") ? 0.90 : 0.97;
+                assertThat(trueSessionValue(spec, device, advice.cap()) / best)
+                        .as(spec.domain() + " " + device + ": " + advice.summary()).isGreaterThanOrEqualTo(floor);
+                assertThat(advice.probabilityBest()).isBetween(0.0, 1.0);
+                assertThat(advice.model()).startsWith("entry/later model at equal caps");
+            }
+        }
     }
 
     @Test
