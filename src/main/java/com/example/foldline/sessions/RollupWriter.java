@@ -22,18 +22,25 @@ class RollupWriter {
     }
 
     void apply(long siteId, Contributions c) {
-        applySessions(siteId, c.sessionCells);
-        applyPages(siteId, c.pageCells);
+        applySessions(siteId, c.sessionCells, false);
+        applyPages(siteId, c.pageCells, false);
     }
 
-    private void applySessions(long siteId, Map<Contributions.SessionCell, Contributions.SessionMeasures> cells) {
+    /** Inserts every cell without trying updates: the caller knows none of them exists (a view being filled). */
+    void insert(long siteId, Contributions c) {
+        applySessions(siteId, c.sessionCells, true);
+        applyPages(siteId, c.pageCells, true);
+    }
+
+    private void applySessions(long siteId, Map<Contributions.SessionCell, Contributions.SessionMeasures> cells,
+                               boolean fresh) {
         List<Map.Entry<Contributions.SessionCell, Contributions.SessionMeasures>> rows = new ArrayList<>();
         cells.entrySet().stream().filter(e -> !e.getValue().isZero()).forEach(rows::add);
         if (rows.isEmpty()) {
             return;
         }
         // cells of days the table has no rows for yet (bulk loads of history) are inserted without trying updates
-        int[][] updated = !hasRows("rollup_session", siteId, rows.stream().map(e -> e.getKey().day()).toList())
+        int[][] updated = fresh || !hasRows("rollup_session", siteId, rows.stream().map(e -> e.getKey().day()).toList())
                 ? allMissing(rows.size()) : jdbc.batchUpdate("""
                         UPDATE rollup_session SET sessions = sessions + ?, bounces = bounces + ?,
                                pageviews = pageviews + ?, pageviews_sq = pageviews_sq + ?, engaged_ms = engaged_ms + ?,
@@ -57,13 +64,14 @@ class RollupWriter {
                 missing, 2000, (ps, e) -> sessionRow(ps, siteId, e));
     }
 
-    private void applyPages(long siteId, Map<Contributions.PageCell, Contributions.PageMeasures> cells) {
+    private void applyPages(long siteId, Map<Contributions.PageCell, Contributions.PageMeasures> cells,
+                            boolean fresh) {
         List<Map.Entry<Contributions.PageCell, Contributions.PageMeasures>> rows = new ArrayList<>();
         cells.entrySet().stream().filter(e -> !e.getValue().isZero()).forEach(rows::add);
         if (rows.isEmpty()) {
             return;
         }
-        int[][] updated = !hasRows("rollup_page", siteId, rows.stream().map(e -> e.getKey().day()).toList())
+        int[][] updated = fresh || !hasRows("rollup_page", siteId, rows.stream().map(e -> e.getKey().day()).toList())
                 ? allMissing(rows.size()) : jdbc.batchUpdate("""
                         UPDATE rollup_page SET pageviews = pageviews + ?, exits = exits + ?, engaged_ms = engaged_ms + ?,
                                revenue_micros = revenue_micros + ?, revenue_sq = revenue_sq + ?,
@@ -169,6 +177,19 @@ class RollupWriter {
             }
         }
         return missing;
+    }
+
+    /** Removes the rows of the given views of a site for local days {@code from}..{@code to}. */
+    void clear(long siteId, List<Integer> sessionViews, List<Integer> pageViews, java.time.LocalDate from,
+               java.time.LocalDate to) {
+        for (int cuboid : sessionViews) {
+            jdbc.update("DELETE FROM rollup_session WHERE site_id = ? AND cuboid = ? AND local_day BETWEEN ? AND ?",
+                    siteId, cuboid, Date.valueOf(from), Date.valueOf(to));
+        }
+        for (int cuboid : pageViews) {
+            jdbc.update("DELETE FROM rollup_page WHERE site_id = ? AND cuboid = ? AND local_day BETWEEN ? AND ?",
+                    siteId, cuboid, Date.valueOf(from), Date.valueOf(to));
+        }
     }
 
     /** Removes every rollup row of a site (before a rebuild). */
