@@ -112,16 +112,24 @@ final class MetricsBenchmark {
             MetricsService metrics = app.getBean(MetricsService.class);
             MetricRequestFactory requests = app.getBean(MetricRequestFactory.class);
             LocalDate last = LocalDate.now(site.timezone()).minusDays(1);
+            printViewSizes(name, app.getBean(DataSource.class), site.id());
             Map<String, List<Double>> times = new LinkedHashMap<>();
+            Map<String, Integer> fallbacks = new LinkedHashMap<>();
             for (int warm = 0; warm < 2; warm++) {
                 for (Question q : questions) {
                     long start = System.nanoTime();
-                    call(metrics, requests, site, q, last);
+                    Object answer = call(metrics, requests, site, q, last);
                     if (warm == 1) {
                         times.computeIfAbsent(q.answer(), k -> new ArrayList<>()).add((System.nanoTime() - start) / 1e6);
+                        if (answeredFrom(answer).contains("session_fact")) {
+                            fallbacks.merge(q.answer() + " " + (q.filter().isEmpty() ? "(none)" : q.filter()), 1,
+                                    Integer::sum);
+                        }
                     }
                 }
             }
+            System.out.printf("%s: calls answered from session_fact (no view holds them): %s%n", name,
+                    fallbacks.isEmpty() ? "none" : fallbacks);
             Map<String, double[]> result = new LinkedHashMap<>();
             times.forEach((k, v) -> result.put(k, percentiles(v)));
             return result;
@@ -140,6 +148,50 @@ final class MetricsBenchmark {
             default -> metrics.timeseries(requests.request(site, "timeseries", query + "&metric=bounceRate"
                     + (q.days() <= 7 ? "&grain=hour" : "")));
         };
+    }
+
+    /** The view an answer was read from (every answer record has {@code scope().answeredFrom()}). */
+    static String answeredFrom(Object answer) {
+        try {
+            var scopeMethod = answer.getClass().getMethod("scope");
+            scopeMethod.setAccessible(true);
+            Object scope = scopeMethod.invoke(answer);
+            var from = scope.getClass().getMethod("answeredFrom");
+            from.setAccessible(true);
+            return (String) from.invoke(scope);
+        } catch (ReflectiveOperationException e) {
+            throw new IllegalStateException(e);
+        }
+    }
+
+    /** Rows per rollup view of the benchmarked site, against its stored sessions. */
+    static void printViewSizes(String name, DataSource ds, long siteId) {
+        try (Connection c = ds.getConnection(); Statement s = c.createStatement()) {
+            long facts = count(s, "SELECT COUNT(*) FROM session_fact WHERE site_id = " + siteId);
+            StringBuilder out = new StringBuilder();
+            for (String table : List.of("rollup_session", "rollup_page")) {
+                long total = 0;
+                out.append(String.format("%n  %s rows per view:", table));
+                try (ResultSet rs = s.executeQuery("SELECT cuboid, COUNT(*) FROM " + table + " WHERE site_id = " + siteId
+                        + " GROUP BY cuboid ORDER BY cuboid")) {
+                    while (rs.next()) {
+                        out.append(String.format(" %d:%,d", rs.getInt(1), rs.getLong(2)));
+                        total += rs.getLong(2);
+                    }
+                }
+                out.append(String.format("  (total %,d)", total));
+            }
+            System.out.printf("%s: news site has %,d stored sessions over 90 days%s%n", name, facts, out);
+        } catch (Exception e) {
+            throw new IllegalStateException(e);
+        }
+    }
+
+    private static long count(Statement s, String sql) throws Exception {
+        try (ResultSet rs = s.executeQuery(sql)) {
+            rs.next();
+            return rs.getLong(1);
+        }
     }
 
     /** The news site's closed sessions, kept for the DuckDB side of the comparison. */
