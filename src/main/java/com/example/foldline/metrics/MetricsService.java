@@ -102,7 +102,9 @@ public class MetricsService {
                 continue;
             }
             double perSession = (double) t.revenueMicros() / t.sessions();
-            Double marginal = pages == 1 ? perSession : previous == null ? null : perSession - previous;
+            // boxed on both branches: a bare double branch would unbox the null of a gap (NullPointerException)
+            Double marginal = pages == 1 ? Double.valueOf(perSession)
+                    : previous == null ? null : Double.valueOf(perSession - previous);
             points.add(new Answers.DepthPoint(pages, pages == 11 ? "11+" : Integer.toString(pages), t.sessions(),
                     total == 0 ? null : (double) t.sessions() / total, perSession, Money.decimal(perSession),
                     marginal, marginal == null ? null : Money.decimal(marginal)));

@@ -182,14 +182,19 @@ class RollupWriter {
     /** Removes the rows of the given views of a site for local days {@code from}..{@code to}. */
     void clear(long siteId, List<Integer> sessionViews, List<Integer> pageViews, java.time.LocalDate from,
                java.time.LocalDate to) {
-        for (int cuboid : sessionViews) {
-            jdbc.update("DELETE FROM rollup_session WHERE site_id = ? AND cuboid = ? AND local_day BETWEEN ? AND ?",
-                    siteId, cuboid, Date.valueOf(from), Date.valueOf(to));
+        // view ids are integers from Cuboid, never input
+        if (!sessionViews.isEmpty()) {
+            jdbc.update("DELETE FROM rollup_session WHERE site_id = ? AND cuboid IN (" + ids(sessionViews)
+                    + ") AND local_day BETWEEN ? AND ?", siteId, Date.valueOf(from), Date.valueOf(to));
         }
-        for (int cuboid : pageViews) {
-            jdbc.update("DELETE FROM rollup_page WHERE site_id = ? AND cuboid = ? AND local_day BETWEEN ? AND ?",
-                    siteId, cuboid, Date.valueOf(from), Date.valueOf(to));
+        if (!pageViews.isEmpty()) {
+            jdbc.update("DELETE FROM rollup_page WHERE site_id = ? AND cuboid IN (" + ids(pageViews)
+                    + ") AND local_day BETWEEN ? AND ?", siteId, Date.valueOf(from), Date.valueOf(to));
         }
+    }
+
+    private static String ids(List<Integer> ids) {
+        return String.join(", ", ids.stream().map(String::valueOf).toList());
     }
 
     /** Removes every rollup row of a site (before a rebuild). */

@@ -169,6 +169,19 @@ abstract class MetricsApiContract {
     }
 
     @Test
+    void depthWithAGapInThePageCountsHasNoMarginalAfterTheGap() {
+        // a segment whose sessions all have 3 pages: no 1- or 2-page point, so the 3-page point has no marginal
+        post(new Events().pageview("t1", "2026-10-20T16:00:00Z", "T", "/t", 1, "tablet", "email", "FR")
+                .pageview("t2", "2026-10-20T16:05:00Z", "T", "/u", 1, "tablet", "email", "FR")
+                .pageview("t3", "2026-10-20T16:10:00Z", "T", "/v", 1, "tablet", "email", "FR"));
+        sessionizer.run(site.id());
+        JsonNode points = get("depth", "&device=tablet").get("points");
+        assertThat(points).hasSize(1);
+        assertThat(points.get(0).get("pages").asInt()).isEqualTo(3);
+        assertThat(points.get(0).has("marginalRevenueMicros")).isFalse();
+    }
+
+    @Test
     void engagementGivesRevenuePerPageviewByEngagedTime() {
         JsonNode a = get("engagement", "");
         assertThat(a.get("unmeasuredPageviews").asLong()).isEqualTo(2);   // c1 and c2 have no page-end
