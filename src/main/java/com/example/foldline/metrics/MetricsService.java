@@ -102,7 +102,7 @@ public class MetricsService {
                 continue;
             }
             double perSession = (double) t.revenueMicros() / t.sessions();
-            // boxed on purpose: with a primitive branch the conditional unboxes a null previous and throws
+            // boxed on both branches: a bare double branch would unbox the null of a gap (NullPointerException)
             Double marginal = pages == 1 ? Double.valueOf(perSession)
                     : previous == null ? null : Double.valueOf(perSession - previous);
             points.add(new Answers.DepthPoint(pages, pages == 11 ? "11+" : Integer.toString(pages), t.sessions(),

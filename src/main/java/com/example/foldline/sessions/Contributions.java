@@ -62,6 +62,19 @@ final class Contributions {
 
     final Map<SessionCell, SessionMeasures> sessionCells = new HashMap<>();
     final Map<PageCell, PageMeasures> pageCells = new HashMap<>();
+    private final List<Cuboid> sessionViews;
+    private final List<Cuboid> pageViews;
+
+    /** Contributions to every view. */
+    Contributions() {
+        this(Cuboid.SESSION, Cuboid.PAGE);
+    }
+
+    /** Contributions to the given views only (filling views a site's rollups lack, {@link RollupFill}). */
+    Contributions(List<Cuboid> sessionViews, List<Cuboid> pageViews) {
+        this.sessionViews = sessionViews;
+        this.pageViews = pageViews;
+    }
 
     boolean isEmpty() {
         return sessionCells.isEmpty() && pageCells.isEmpty();
@@ -71,7 +84,7 @@ final class Contributions {
         if (!s.closed()) {
             return;
         }
-        for (Cuboid c : Cuboid.SESSION) {
+        for (Cuboid c : sessionViews) {
             SessionCell key = new SessionCell(c.id(), s.localDay(),
                     c.has(Dim.HOUR) ? s.localHour() : -1,
                     text(c, Dim.DEVICE, s.device()), text(c, Dim.SOURCE, s.source()),
@@ -99,7 +112,7 @@ final class Contributions {
             PageStat p = pages.get(i);
             int position = i == 0 ? 0 : 1;
             boolean exit = i == pages.size() - 1;
-            for (Cuboid c : Cuboid.PAGE) {
+            for (Cuboid c : pageViews) {
                 PageCell key = new PageCell(c.id(), s.localDay(),
                         text(c, Dim.DEVICE, s.device()), text(c, Dim.SOURCE, s.source()),
                         text(c, Dim.BROWSER, s.browser()), text(c, Dim.VARIANT, s.variant()),

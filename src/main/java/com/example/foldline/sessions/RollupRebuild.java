@@ -16,9 +16,11 @@ public class RollupRebuild {
     private final SessionRepository sessions;
     private final Sessionizer sessionizer;
     private final TransactionTemplate tx;
+    private final RollupFill fills;
 
     RollupRebuild(JdbcTemplate jdbc, RollupWriter rollups, SessionRepository sessions, Sessionizer sessionizer,
-                  TransactionTemplate tx) {
+                  TransactionTemplate tx, RollupFill fills) {
+        this.fills = fills;
         this.jdbc = jdbc;
         this.rollups = rollups;
         this.sessions = sessions;
@@ -30,6 +32,7 @@ public class RollupRebuild {
         tx.executeWithoutResult(status -> {
             sessions.lockSite(siteId);
             rollups.clear(siteId);
+            fills.forget(siteId); // every view is rebuilt from the same raw events
             jdbc.update("DELETE FROM session_fact WHERE site_id = ? AND origin = 'tag'", siteId);
             jdbc.update("UPDATE session_fact SET rolled_up = FALSE WHERE site_id = ?", siteId);
             jdbc.update("DELETE FROM ingest_batch WHERE site_id = ?", siteId);

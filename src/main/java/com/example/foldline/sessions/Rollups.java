@@ -69,15 +69,17 @@ public class Rollups {
             SUM(viewable_impressions) AS viewable_impressions, SUM(clicks) AS clicks""";
 
     private final NamedParameterJdbcTemplate jdbc;
+    private final RollupFill fills;
 
-    Rollups(NamedParameterJdbcTemplate jdbc) {
+    Rollups(NamedParameterJdbcTemplate jdbc, RollupFill fills) {
         this.jdbc = jdbc;
+        this.fills = fills;
     }
 
     /** Session measures grouped by {@code groupBy} (and by day when {@code byDay}). */
     public SessionAnswer sessions(long siteId, SegmentFilter filter, List<Dim> groupBy, boolean byDay) {
         Set<Dim> needed = needed(filter, groupBy);
-        Optional<Cuboid> view = Cuboid.cheapest(Cuboid.SESSION, needed);
+        Optional<Cuboid> view = Cuboid.cheapest(Cuboid.SESSION, needed, fills.usable(siteId, filter.from()));
         MapSqlParameterSource params = new MapSqlParameterSource("site", siteId)
                 .addValue("from", Date.valueOf(filter.from())).addValue("to", Date.valueOf(filter.to()));
         StringBuilder sql = new StringBuilder("SELECT ");
@@ -114,7 +116,7 @@ public class Rollups {
     /** Page measures grouped by {@code groupBy} (and by day when {@code byDay}). */
     public PageAnswer pages(long siteId, SegmentFilter filter, List<Dim> groupBy, boolean byDay) {
         Set<Dim> needed = needed(filter, groupBy);
-        Optional<Cuboid> view = Cuboid.cheapest(Cuboid.PAGE, needed);
+        Optional<Cuboid> view = Cuboid.cheapest(Cuboid.PAGE, needed, fills.usable(siteId, filter.from()));
         if (view.isEmpty()) {
             return pagesFromSessions(siteId, filter, groupBy, byDay);
         }

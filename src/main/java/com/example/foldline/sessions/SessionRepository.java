@@ -227,6 +227,26 @@ class SessionRepository {
                 });
     }
 
+    /**
+     * Calls {@code action} with every session of the local day whose contribution the rollups hold (closed and
+     * rolled up), streamed in pages of 1,000 rows; returns how many there were.
+     */
+    long forEachInRollups(long siteId, LocalDate day, java.util.function.Consumer<SessionFact> action) {
+        long[] n = {0};
+        jdbc.query(con -> {
+            java.sql.PreparedStatement ps = con.prepareStatement("SELECT " + SESSION_COLUMNS + """
+                     FROM session_fact WHERE site_id = ? AND local_day = ? AND closed = TRUE AND rolled_up = TRUE""");
+            ps.setFetchSize(1000);
+            ps.setLong(1, siteId);
+            ps.setObject(2, day);
+            return ps;
+        }, rs -> {
+            action.accept(session(rs, 0));
+            n[0]++;
+        });
+        return n[0];
+    }
+
     /** Sessions stored without rollup contributions yet (imports). */
     List<SessionFact> notRolledUp(long siteId, int limit) {
         return jdbc.query("SELECT " + SESSION_COLUMNS + """

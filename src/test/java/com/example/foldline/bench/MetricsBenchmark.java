@@ -24,6 +24,8 @@ import com.example.foldline.FoldlineApplication;
 import com.example.foldline.demo.DemoPublisher;
 import com.example.foldline.metrics.MetricRequestFactory;
 import com.example.foldline.metrics.MetricsService;
+import com.example.foldline.sessions.Cuboid;
+import com.example.foldline.sessions.RollupFill;
 import com.example.foldline.sites.Site;
 
 /**
@@ -112,20 +114,54 @@ final class MetricsBenchmark {
             MetricsService metrics = app.getBean(MetricsService.class);
             MetricRequestFactory requests = app.getBean(MetricRequestFactory.class);
             LocalDate last = LocalDate.now(site.timezone()).minusDays(1);
+            printViewSizes(name, app.getBean(DataSource.class), site.id());
             Map<String, List<Double>> times = new LinkedHashMap<>();
+            Map<String, Integer> fallbacks = new LinkedHashMap<>();
             for (int warm = 0; warm < 2; warm++) {
                 for (Question q : questions) {
                     long start = System.nanoTime();
-                    call(metrics, requests, site, q, last);
+                    Object answer = call(metrics, requests, site, q, last);
                     if (warm == 1) {
                         times.computeIfAbsent(q.answer(), k -> new ArrayList<>()).add((System.nanoTime() - start) / 1e6);
+                        if (answeredFrom(answer).contains("session_fact")) {
+                            fallbacks.merge(q.answer() + " " + (q.filter().isEmpty() ? "(none)" : q.filter()), 1,
+                                    Integer::sum);
+                        }
                     }
                 }
             }
+            System.out.printf("%s: calls answered from session_fact (no view holds them): %s%n", name,
+                    fallbacks.isEmpty() ? "none" : fallbacks);
             Map<String, double[]> result = new LinkedHashMap<>();
             times.forEach((k, v) -> result.put(k, percentiles(v)));
+            timeFill(name, app, site.id());
             return result;
         }
+    }
+
+    /** Empties the news site's lattice-2 views, marks it as migration V8 does, and times filling them again. */
+    static void timeFill(String name, ConfigurableApplicationContext app, long siteId) {
+        try (Connection c = app.getBean(DataSource.class).getConnection(); Statement s = c.createStatement()) {
+            for (Cuboid v : Cuboid.SESSION) {
+                if (v.lattice() > 1) {
+                    s.execute("DELETE FROM rollup_session WHERE site_id = " + siteId + " AND cuboid = " + v.id());
+                }
+            }
+            for (Cuboid v : Cuboid.PAGE) {
+                if (v.lattice() > 1) {
+                    s.execute("DELETE FROM rollup_page WHERE site_id = " + siteId + " AND cuboid = " + v.id());
+                }
+            }
+            s.execute("INSERT INTO rollup_fill (site_id, lattice, state) VALUES (" + siteId + ", 2, 'pending')");
+        } catch (Exception e) {
+            throw new IllegalStateException(e);
+        }
+        RollupFill fill = app.getBean(RollupFill.class);
+        long t0 = System.nanoTime();
+        RollupFill.Report report = fill.fill(siteId, 2);
+        double seconds = (System.nanoTime() - t0) / 1e9;
+        System.out.printf("%s: filled the lattice-2 views of the news site (%,d sessions, %d days) in %.1f s "
+                + "(%,.0f sessions/s)%n", name, report.sessions(), report.days(), seconds, report.sessions() / seconds);
     }
 
     static Object call(MetricsService metrics, MetricRequestFactory requests, Site site, Question q, LocalDate last) {
@@ -140,6 +176,50 @@ final class MetricsBenchmark {
             default -> metrics.timeseries(requests.request(site, "timeseries", query + "&metric=bounceRate"
                     + (q.days() <= 7 ? "&grain=hour" : "")));
         };
+    }
+
+    /** The view an answer was read from (every answer record has {@code scope().answeredFrom()}). */
+    static String answeredFrom(Object answer) {
+        try {
+            var scopeMethod = answer.getClass().getMethod("scope");
+            scopeMethod.setAccessible(true);
+            Object scope = scopeMethod.invoke(answer);
+            var from = scope.getClass().getMethod("answeredFrom");
+            from.setAccessible(true);
+            return (String) from.invoke(scope);
+        } catch (ReflectiveOperationException e) {
+            throw new IllegalStateException(e);
+        }
+    }
+
+    /** Rows per rollup view of the benchmarked site, against its stored sessions. */
+    static void printViewSizes(String name, DataSource ds, long siteId) {
+        try (Connection c = ds.getConnection(); Statement s = c.createStatement()) {
+            long facts = count(s, "SELECT COUNT(*) FROM session_fact WHERE site_id = " + siteId);
+            StringBuilder out = new StringBuilder();
+            for (String table : List.of("rollup_session", "rollup_page")) {
+                long total = 0;
+                out.append(String.format("%n  %s rows per view:", table));
+                try (ResultSet rs = s.executeQuery("SELECT cuboid, COUNT(*) FROM " + table + " WHERE site_id = " + siteId
+                        + " GROUP BY cuboid ORDER BY cuboid")) {
+                    while (rs.next()) {
+                        out.append(String.format(" %d:%,d", rs.getInt(1), rs.getLong(2)));
+                        total += rs.getLong(2);
+                    }
+                }
+                out.append(String.format("  (total %,d)", total));
+            }
+            System.out.printf("%s: news site has %,d stored sessions over 90 days%s%n", name, facts, out);
+        } catch (Exception e) {
+            throw new IllegalStateException(e);
+        }
+    }
+
+    private static long count(Statement s, String sql) throws Exception {
+        try (ResultSet rs = s.executeQuery(sql)) {
+            rs.next();
+            return rs.getLong(1);
+        }
     }
 
     /** The news site's closed sessions, kept for the DuckDB side of the comparison. */

@@ -16,6 +16,8 @@ import org.springframework.jdbc.core.simple.JdbcClient;
 import org.springframework.test.web.servlet.assertj.MockMvcTester;
 
 import com.example.foldline.sessions.Cuboid;
+import com.example.foldline.sessions.Dim;
+import com.example.foldline.sessions.RollupFill;
 import com.example.foldline.sessions.Sessionizer;
 import com.example.foldline.sites.NewIngestKey;
 import com.example.foldline.sites.Site;
@@ -42,6 +44,8 @@ abstract class MetricsApiContract {
     JdbcClient jdbc;
     @Autowired
     ObjectMapper json;
+    @Autowired
+    RollupFill rollupFill;
 
     Site site;
     String key;
@@ -83,7 +87,11 @@ abstract class MetricsApiContract {
     }
 
     JsonNode get(String name, String query) {
-        var result = mvc.get().uri("/api/v1/sites/" + site.id() + "/metrics/" + name + "?from=2026-10-20&to=2026-10-20"
+        return get(name, "2026-10-20", "2026-10-20", query);
+    }
+
+    JsonNode get(String name, String from, String to, String query) {
+        var result = mvc.get().uri("/api/v1/sites/" + site.id() + "/metrics/" + name + "?from=" + from + "&to=" + to
                 + query).with(httpBasic("admin", "admin-secret")).exchange();
         assertThat(result).hasStatusOk();
         return json.readTree(result.getResponse().getContentAsByteArray());
@@ -111,7 +119,7 @@ abstract class MetricsApiContract {
         assertThat(phone.get("sessions").asLong()).isEqualTo(2);
         assertThat(phone.get("revenueMicros").asLong()).isEqualTo(3500);
         // a combination no rollup view holds falls back to the sessions table with the same result
-        JsonNode odd = get("overview", "&region=PT-11&browser=Lumen");
+        JsonNode odd = get("overview", "&region=PT-11&browser=Lumen&device=phone");
         assertThat(odd.get("scope").get("answeredFrom").stringValue()).contains("session_fact");
         assertThat(odd.get("current").get("sessions").asLong()).isZero();
     }
@@ -158,6 +166,19 @@ abstract class MetricsApiContract {
         assertThat(points.get(0).get("revenuePerSessionMicros").asDouble()).isCloseTo(4000 / 3.0, within(1e-9));
         assertThat(points.get(1).get("revenuePerSessionMicros").asDouble()).isEqualTo(3500.0);
         assertThat(points.get(1).get("marginalRevenueMicros").asDouble()).isCloseTo(3500 - 4000 / 3.0, within(1e-9));
+    }
+
+    @Test
+    void depthWithAGapInThePageCountsHasNoMarginalAfterTheGap() {
+        // a segment whose sessions all have 3 pages: no 1- or 2-page point, so the 3-page point has no marginal
+        post(new Events().pageview("t1", "2026-10-20T16:00:00Z", "T", "/t", 1, "tablet", "email", "FR")
+                .pageview("t2", "2026-10-20T16:05:00Z", "T", "/u", 1, "tablet", "email", "FR")
+                .pageview("t3", "2026-10-20T16:10:00Z", "T", "/v", 1, "tablet", "email", "FR"));
+        sessionizer.run(site.id());
+        JsonNode points = get("depth", "&device=tablet").get("points");
+        assertThat(points).hasSize(1);
+        assertThat(points.get(0).get("pages").asInt()).isEqualTo(3);
+        assertThat(points.get(0).has("marginalRevenueMicros")).isFalse();
     }
 
     @Test
@@ -284,6 +305,92 @@ abstract class MetricsApiContract {
     }
 
     @Test
+    void questionsWithOneOrTwoReaderFiltersAreReadFromAView() {
+        // issue #3: entry paths with a source or country filter, geography with device x variant (docs/architecture.md)
+        JsonNode pages = get("pages", "&source=search");
+        assertThat(pages.get("scope").get("answeredFrom").stringValue()).isEqualTo("rollup_session view 41");
+        assertThat(pages.get("rows")).extracting(r -> r.get("path").stringValue() + "=" + r.get("sessions").asLong())
+                .containsExactly("/x=2");
+        assertThat(get("pages", "&country=ES").get("scope").get("answeredFrom").stringValue())
+                .isEqualTo("rollup_session view 42");
+        JsonNode geo = get("geography", "&device=phone&variant=stacked");
+        assertThat(geo.get("scope").get("answeredFrom").stringValue()).isEqualTo("rollup_session view 37");
+        assertThat(geo.get("rows")).isEmpty();
+        assertThat(get("geography", "&device=phone").get("rows").get(0).get("sessions").asLong()).isEqualTo(2);
+        assertThat(get("density", "&browser=Lumen").get("scope").get("answeredFrom").stringValue())
+                .startsWith("rollup_session view");
+        assertThat(get("engagement", "&region=PT-11").get("scope").get("answeredFrom").stringValue())
+                .isEqualTo("rollup_page view 16");
+        assertRollupsEqualSessions();
+    }
+
+    @Test
+    void rollupsOfTheOldLatticeGetTheNewViewsFilled() {
+        // a database whose rollups were built before lattice 2: no rows in the new views, marked by migration V8
+        simulateOldLattice();
+        JsonNode before = get("pages", "&source=search");
+        assertThat(before.get("scope").get("answeredFrom").stringValue()).contains("session_fact");
+        assertThat(rollupFill.fillPending()).singleElement().satisfies(r -> {
+            assertThat(r.siteId()).isEqualTo(site.id());
+            assertThat(r.sessions()).isEqualTo(4);
+            assertThat(r.completeFrom()).isNull();
+        });
+        assertThat(jdbc.sql("SELECT state FROM rollup_fill WHERE site_id = :s").param("s", site.id())
+                .query(String.class).single()).isEqualTo("done");
+        JsonNode after = get("pages", "&source=search");
+        assertThat(after.get("scope").get("answeredFrom").stringValue()).isEqualTo("rollup_session view 41");
+        assertThat(after.get("rows").toString()).isEqualTo(before.get("rows").toString());
+        assertRollupsEqualSessions();
+        // the sessionizer keeps the filled views right afterwards
+        post(new Events().pageview("d1", "2026-10-20T15:00:00Z", "D", "/x", 1, "tablet", "search", "PT"));
+        sessionizer.run(site.id());
+        assertRollupsEqualSessions();
+    }
+
+    @Test
+    void fillingAfterRetentionLeavesDaysWithoutSessionsOnTheOldViews() {
+        java.time.LocalDate recent = java.time.LocalDate.now(java.time.ZoneId.of("Europe/Lisbon")).minusDays(2);
+        post(new Events().pageview("r1", recent + "T12:00:00Z", "R", "/new", 3, "tablet", "email", "FR"));
+        sessionizer.run(site.id());
+        simulateOldLattice();
+        // retention (30 days) deletes the fixture's sessions of 2026-10-20; the rollups keep them
+        sites.update(site.id(), new SiteSettings(site.name(), site.domain(), "Europe/Lisbon", "EUR", null, null, 30));
+        assertThat(mvc.post().uri("/api/v1/admin/retention/run").with(httpBasic("admin", "admin-secret"))).hasStatusOk();
+        assertThat(rollupFill.fill(site.id(), 2).completeFrom()).isEqualTo(java.time.LocalDate.parse("2026-10-21"));
+        // from the first complete day on, the new views answer
+        JsonNode late = get("pages", recent.toString(), recent.toString(), "&source=email");
+        assertThat(late.get("scope").get("answeredFrom").stringValue()).isEqualTo("rollup_session view 41");
+        assertThat(late.get("rows").get(0).get("sessions").asLong()).isEqualTo(1);
+        // a range reaching back to 2026-10-20 does not read the new views, whose rows lack that day's sessions
+        JsonNode early = get("pages", "2026-10-20", recent.toString(), "&source=email");
+        assertThat(early.get("scope").get("answeredFrom").stringValue()).contains("session_fact");
+        assertThat(get("geography", "2026-10-20", recent.toString(), "&browser=Lumen").get("scope")
+                .get("answeredFrom").stringValue()).contains("session_fact");
+        // and old views keep every day
+        assertThat(get("overview", "2026-10-20", recent.toString(), "").get("current").get("sessions").asLong())
+                .isEqualTo(5);
+    }
+
+    /** Removes the rows of the lattice-2 views and marks the site as migration V8 does for existing rollups. */
+    private void simulateOldLattice() {
+        for (Cuboid c : Cuboid.SESSION) {
+            if (c.lattice() > 1) {
+                jdbc.sql("DELETE FROM rollup_session WHERE site_id = :s AND cuboid = :c").param("s", site.id())
+                        .param("c", c.id()).update();
+            }
+        }
+        for (Cuboid c : Cuboid.PAGE) {
+            if (c.lattice() > 1) {
+                jdbc.sql("DELETE FROM rollup_page WHERE site_id = :s AND cuboid = :c").param("s", site.id())
+                        .param("c", c.id()).update();
+            }
+        }
+        jdbc.sql("INSERT INTO rollup_fill (site_id, lattice, state) VALUES (:s, 2, 'pending')")
+                .param("s", site.id()).update();
+        rollupFill.refresh();
+    }
+
+    @Test
     void badFilterInputIs400NamingTheParameter() {
         assertBad("?shoeSize=42", "shoeSize");
         assertBad("?device=fridge", "device");
@@ -305,28 +412,63 @@ abstract class MetricsApiContract {
                 .bodyJson().extractingPath("$.errors[0].field").isEqualTo(field);
     }
 
-    /** Every rollup view must add up to the stored closed sessions (the invariant the incremental updates keep). */
+    /**
+     * Every rollup view must hold the stored closed sessions cell by cell (the invariant the incremental updates and
+     * the fill of new views keep): each session view grouped by day and its dimensions equals the sessions grouped
+     * the same way; each page view grouped by day and its segment dimensions equals the sessions' pageviews.
+     */
     void assertRollupsEqualSessions() {
-        Map<String, Object> facts = jdbc.sql("""
-                SELECT COUNT(*) AS sessions, SUM(pageviews) AS pageviews, SUM(revenue_micros) AS revenue,
-                       SUM(CASE WHEN bounce THEN 1 ELSE 0 END) AS bounces
-                FROM session_fact WHERE site_id = :s AND closed = TRUE""").param("s", site.id()).query().singleRow();
         for (Cuboid c : Cuboid.SESSION) {
-            Map<String, Object> view = jdbc.sql("""
-                    SELECT SUM(sessions) AS sessions, SUM(pageviews) AS pageviews, SUM(revenue_micros) AS revenue,
-                           SUM(bounces) AS bounces
-                    FROM rollup_session WHERE site_id = :s AND cuboid = :c""")
-                    .param("s", site.id()).param("c", c.id()).query().singleRow();
-            for (String k : List.of("sessions", "pageviews", "revenue", "bounces")) {
-                assertThat(((Number) view.get(k)).longValue()).as("view %d %s", c.id(), k)
-                        .isEqualTo(((Number) facts.get(k)).longValue());
+            List<String> rollup = new java.util.ArrayList<>(List.of("local_day"));
+            List<String> fact = new java.util.ArrayList<>(List.of("local_day"));
+            for (Dim d : Dim.values()) {
+                if (c.has(d)) {
+                    rollup.add(d.column());
+                    fact.add(switch (d) {
+                        case PAGES -> "LEAST(pageviews, 11)";
+                        case HOUR, ENTRY_ADS, ENTRY_PATH -> d.column();
+                        default -> "COALESCE(" + d.column() + ", '')";
+                    });
+                }
             }
+            assertThat(cells("SELECT " + String.join(", ", rollup) + """
+                    , SUM(sessions), SUM(bounces), SUM(pageviews), SUM(revenue_micros), SUM(entry_ads_sum)
+                    FROM rollup_session WHERE site_id = :s AND cuboid = """ + c.id() + " GROUP BY "
+                    + String.join(", ", rollup) + " HAVING SUM(sessions) <> 0"))
+                    .as("session view %d %s", c.id(), c.dims())
+                    .containsExactlyInAnyOrderElementsOf(cells("SELECT " + String.join(", ", fact) + """
+                            , COUNT(*), SUM(CASE WHEN bounce THEN 1 ELSE 0 END), SUM(pageviews), SUM(revenue_micros),
+                            SUM(entry_ads) FROM session_fact WHERE site_id = :s AND closed = TRUE GROUP BY """
+                            + " " + String.join(", ", fact)));
         }
-        long pages = ((Number) facts.get("pageviews")).longValue();
         for (Cuboid c : Cuboid.PAGE) {
-            Number n = (Number) jdbc.sql("SELECT SUM(pageviews) FROM rollup_page WHERE site_id = :s AND cuboid = :c")
-                    .param("s", site.id()).param("c", c.id()).query().singleValue();
-            assertThat(n.longValue()).as("page view %d", c.id()).isEqualTo(pages);
+            List<String> rollup = new java.util.ArrayList<>(List.of("local_day"));
+            List<String> fact = new java.util.ArrayList<>(List.of("local_day"));
+            for (Dim d : Dim.values()) {
+                if (c.has(d) && d.isSegment()) {
+                    rollup.add(d.column());
+                    fact.add("COALESCE(" + d.column() + ", '')");
+                }
+            }
+            assertThat(cells("SELECT " + String.join(", ", rollup) + ", SUM(pageviews), SUM(exits) FROM rollup_page"
+                    + " WHERE site_id = :s AND cuboid = " + c.id() + " GROUP BY " + String.join(", ", rollup)
+                    + " HAVING SUM(pageviews) <> 0"))
+                    .as("page view %d %s", c.id(), c.dims())
+                    .containsExactlyInAnyOrderElementsOf(cells("SELECT " + String.join(", ", fact)
+                            + ", SUM(pageviews), COUNT(*) FROM session_fact WHERE site_id = :s AND closed = TRUE"
+                            + " GROUP BY " + String.join(", ", fact)));
         }
+    }
+
+    /** Rows of a grouped query as text, numbers as longs (the two databases return different number types). */
+    private List<String> cells(String sql) {
+        return jdbc.sql(sql).param("s", site.id()).query((rs, i) -> {
+            StringBuilder row = new StringBuilder();
+            for (int k = 1; k <= rs.getMetaData().getColumnCount(); k++) {
+                Object v = rs.getObject(k);
+                row.append(v instanceof Number n ? Long.toString(n.longValue()) : String.valueOf(v)).append('|');
+            }
+            return row.toString();
+        }).list();
     }
 }
