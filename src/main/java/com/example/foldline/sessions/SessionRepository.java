@@ -72,12 +72,17 @@ class SessionRepository {
         Map<String, Instant> earliest = new HashMap<>();
         for (String sql : List.of("""
                         SELECT p.visitor, MIN(p.ts) FROM page_end e
-                        JOIN pageview p ON p.site_id = e.site_id AND p.id = e.pageview_id
+                        LEFT JOIN pageview p ON p.site_id = e.site_id AND p.id = e.pageview_id
                         WHERE e.site_id = ? AND e.ingest_batch = ? GROUP BY p.visitor""", """
                         SELECT p.visitor, MIN(p.ts) FROM impression i
-                        JOIN pageview p ON p.site_id = i.site_id AND p.id = i.pageview_id
+                        LEFT JOIN pageview p ON p.site_id = i.site_id AND p.id = i.pageview_id
                         WHERE i.site_id = ? AND i.ingest_batch = ? GROUP BY p.visitor""")) {
+            // LEFT JOIN: keeps the batch's rows as the outer side on H2 whatever the statistics; extras whose
+            // pageview is not stored yet come back as a NULL visitor
             jdbc.query(sql, rs -> {
+                if (rs.getString(1) == null) {
+                    return;
+                }
                 Instant ts = rs.getTimestamp(2).toInstant();
                 earliest.merge(rs.getString(1), ts, (a, b) -> a.isBefore(b) ? a : b);
             }, siteId, batch);
@@ -104,19 +109,23 @@ class SessionRepository {
 
     /**
      * Built sessions of these visitors (at most {@link #LOOKUP} of them) that end at or after {@code endFrom}. The
-     * visitors are joined as a {@code VALUES} list, so both databases look each one up in the (site, visitor, start)
-     * index; an {@code IN} list on the index's second column is filtered in a scan of the whole site on H2.
+     * visitors are a {@code VALUES} list on the left of a LEFT JOIN, so both databases look each one up in the
+     * (site, visitor, start) index: H2 never reorders an outer join. On H2 an {@code IN} list on the index's second
+     * column is filtered in a scan of the whole site, {@code IN (subquery)} re-runs the subquery for every row, and an
+     * inner join with the list may keep a plan made while the table was empty (docs/benchmarks.md, "Sessionizer").
+     * The origin is checked here, not in SQL: with {@code origin = 'tag'} in the join the primary key (site, origin,
+     * id) ties with the visitor index on H2 until statistics exist, and a plan made then scans every session.
      */
     List<SessionFact> tagSessions(long siteId, List<String> visitors, Instant endFrom) {
         return jdbc.query("SELECT " + prefixed("s", SESSION_COLUMNS) + " FROM " + values(visitors.size(), "visitor", 32)
                         + """
-                         JOIN session_fact s ON s.site_id = ? AND s.origin = 'tag' AND s.visitor = v.visitor
-                         AND s.end_ts >= ?""",
+                         LEFT JOIN session_fact s ON s.site_id = ? AND s.visitor = v.visitor AND s.end_ts >= ?""",
                 ps -> {
                     int i = bindPadded(ps, visitors);
                     ps.setLong(i++, siteId);
                     ps.setTimestamp(i, Timestamp.from(endFrom));
-                }, SessionRepository::session);
+                }, (rs, n) -> rs.getString("id") == null || !"tag".equals(rs.getString("origin")) ? null : session(rs, n))
+                .stream().filter(java.util.Objects::nonNull).toList();
     }
 
     /**
@@ -125,12 +134,13 @@ class SessionRepository {
      */
     List<PageviewRow> visitorPageviews(long siteId, List<String> visitors, Instant from) {
         return jdbc.query("SELECT " + prefixed("p", PAGEVIEW_COLUMNS) + " FROM " + values(visitors.size(), "visitor", 32)
-                        + " JOIN pageview p ON p.site_id = ? AND p.visitor = v.visitor AND p.ts >= ?",
+                        + " LEFT JOIN pageview p ON p.site_id = ? AND p.visitor = v.visitor AND p.ts >= ?",
                 ps -> {
                     int i = bindPadded(ps, visitors);
                     ps.setLong(i++, siteId);
                     ps.setTimestamp(i, Timestamp.from(from));
-                }, (rs, n) -> pageview(rs));
+                }, (rs, n) -> rs.getString(1) == null ? null : pageview(rs))
+                .stream().filter(java.util.Objects::nonNull).toList();
     }
 
     /**
@@ -146,18 +156,23 @@ class SessionRepository {
         List<String> ids = rows.stream().map(PageviewRow::id).toList();
         for (List<String> chunk : chunks(ids, LOOKUP)) {
             jdbc.query("SELECT e.pageview_id, e.engaged_ms FROM " + values(chunk.size(), "pv", 64)
-                            + " JOIN page_end e ON e.site_id = ? AND e.pageview_id = v.pv",
+                            + " LEFT JOIN page_end e ON e.site_id = ? AND e.pageview_id = v.pv",
                     ps -> ps.setLong(bindPadded(ps, chunk), siteId),
                     rs -> {
-                        engaged.put(rs.getString(1), rs.getLong(2));
+                        if (rs.getString(1) != null) {
+                            engaged.put(rs.getString(1), rs.getLong(2));
+                        }
                     });
             jdbc.query("""
                             SELECT i.pageview_id, SUM(i.revenue_micros), COUNT(*),
                                    SUM(CASE WHEN i.viewable THEN 1 ELSE 0 END), SUM(CASE WHEN i.clicked THEN 1 ELSE 0 END)
                             FROM""" + " " + values(chunk.size(), "pv", 64) + """
-                             JOIN impression i ON i.site_id = ? AND i.pageview_id = v.pv GROUP BY i.pageview_id""",
+                             LEFT JOIN impression i ON i.site_id = ? AND i.pageview_id = v.pv GROUP BY i.pageview_id""",
                     ps -> ps.setLong(bindPadded(ps, chunk), siteId),
                     rs -> {
+                        if (rs.getString(1) == null) {
+                            return;
+                        }
                         ads.put(rs.getString(1), new long[]{rs.getLong(2), rs.getLong(3), rs.getLong(4), rs.getLong(5)});
                     });
         }
@@ -323,22 +338,42 @@ class SessionRepository {
                 });
     }
 
-    /** Sessions stored without rollup contributions yet (imports). */
+    /**
+     * The next imported sessions stored without rollup contributions yet, in (local day, id) order through the
+     * pending index (V7), so that a chunk covers few days and its contributions aggregate into few rollup cells.
+     * Only imports are ever stored without their contributions (built sessions and bulk loads add them at once).
+     */
     List<SessionFact> notRolledUp(long siteId, int limit) {
         return jdbc.query("SELECT " + SESSION_COLUMNS + """
-                         FROM session_fact WHERE site_id = ? AND rolled_up = FALSE ORDER BY id LIMIT ?""",
+                         FROM session_fact WHERE site_id = ? AND rolled_up = FALSE AND origin = 'import'
+                        ORDER BY local_day, id LIMIT ?""",
                 SessionRepository::session, siteId, limit);
     }
 
-    void markRolledUp(long siteId, List<SessionFact> sessions) {
-        jdbc.batchUpdate("""
-                        UPDATE session_fact SET rolled_up = TRUE, page_detail = ?
-                        WHERE site_id = ? AND origin = ? AND id = ?""",
+    /**
+     * Marks the sessions read by {@link #notRolledUp} (in its order) as rolled up with one UPDATE over their
+     * (day, id) range. Returns false, having changed nothing the caller keeps, when the range held more pending rows
+     * than were read (an import committed new ones into it meanwhile): the caller must roll back and use
+     * {@link #markRolledUpOneByOne}. Their page detail is not stored: {@link ImportedPages} derives it from the
+     * totals wherever it is needed.
+     */
+    boolean markRolledUp(long siteId, List<SessionFact> sessions) {
+        SessionFact first = sessions.get(0);
+        SessionFact last = sessions.get(sessions.size() - 1);
+        int n = jdbc.update("""
+                        UPDATE session_fact SET rolled_up = TRUE
+                        WHERE site_id = ? AND rolled_up = FALSE AND origin = 'import' AND local_day BETWEEN ? AND ?
+                          AND (local_day < ? OR id <= ?)""",
+                siteId, first.localDay(), last.localDay(), last.localDay(), last.id());
+        return n == sessions.size();
+    }
+
+    void markRolledUpOneByOne(long siteId, List<SessionFact> sessions) {
+        jdbc.batchUpdate("UPDATE session_fact SET rolled_up = TRUE WHERE site_id = ? AND origin = ? AND id = ?",
                 sessions, 1000, (ps, s) -> {
-                    ps.setString(1, PageStat.encode(s.pages()));
-                    ps.setLong(2, siteId);
-                    ps.setString(3, s.origin());
-                    ps.setString(4, s.id());
+                    ps.setLong(1, siteId);
+                    ps.setString(2, s.origin());
+                    ps.setString(3, s.id());
                 });
     }
 

@@ -36,6 +36,8 @@ public class Sessionizer {
     private static final int BATCHES_PER_RUN = 2_000;
     /** A transaction takes batches until it has read about this many new pageviews. */
     private static final int PAGEVIEWS_PER_RUN = 100_000;
+    /** Imported sessions rolled up per transaction. */
+    private static final int IMPORTS_PER_RUN = 20_000;
 
     private final SessionRepository repository;
     private final RollupWriter rollups;
@@ -95,7 +97,12 @@ public class Sessionizer {
         }
         long imported = 0;
         while (true) {
-            Integer n = tx.execute(status -> rollUpImports(site));
+            Integer n;
+            try {
+                n = tx.execute(status -> rollUpImports(site, false));
+            } catch (ConcurrentImport e) {
+                n = tx.execute(status -> rollUpImports(site, true));
+            }
             if (n == 0) {
                 break;
             }
@@ -285,22 +292,35 @@ public class Sessionizer {
     private static final Comparator<SessionFact> SESSION_ORDER =
             Comparator.comparing(SessionFact::start).thenComparing(SessionFact::id);
 
-    private int rollUpImports(Site site) {
+    /**
+     * Adds the contributions of the next {@link #IMPORTS_PER_RUN} imported sessions (in day order, so that they
+     * aggregate into few cells) and marks them with one ranged UPDATE, or one by one when {@code oneByOne} (after an
+     * import committed rows into the range while this ran; the first attempt is then rolled back).
+     */
+    private int rollUpImports(Site site, boolean oneByOne) {
         repository.lockSite(site.id());
-        List<SessionFact> pending = repository.notRolledUp(site.id(), 5_000);
+        List<SessionFact> pending = repository.notRolledUp(site.id(), IMPORTS_PER_RUN);
         if (pending.isEmpty()) {
             return 0;
         }
         Contributions contributions = new Contributions();
-        List<SessionFact> done = new ArrayList<>(pending.size());
         for (SessionFact s : pending) {
-            SessionFact withPages = ImportedPages.withPages(s);
-            contributions.add(withPages, +1);
-            done.add(withPages);
+            contributions.add(ImportedPages.withPages(s), +1);
+        }
+        if (oneByOne) {
+            repository.markRolledUpOneByOne(site.id(), pending);
+        } else if (!repository.markRolledUp(site.id(), pending)) {
+            throw new ConcurrentImport();
         }
         rollups.apply(site.id(), contributions);
-        repository.markRolledUp(site.id(), done);
         return pending.size();
+    }
+
+    /** Rolls a ranged mark back: the range held rows committed after they were read. */
+    private static final class ConcurrentImport extends RuntimeException {
+        ConcurrentImport() {
+            super("imported sessions were committed into the range being rolled up", null, false, false);
+        }
     }
 
     private int closeIdle(Site site) {

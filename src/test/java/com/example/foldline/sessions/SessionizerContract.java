@@ -43,6 +43,8 @@ abstract class SessionizerContract {
     RollupRebuild rebuild;
     @Autowired
     JdbcClient jdbc;
+    @Autowired
+    SessionRepository repository;
 
     record Page(String id, Instant ts, String visitor, String clientSession, String path, int ads, String device,
                 String source) {
@@ -180,6 +182,40 @@ abstract class SessionizerContract {
         assertThat(closed(site, "recent")).isTrue();
         assertThat(closed(site, "ahead")).isFalse();
         assertRollupsAddUp(site);
+    }
+
+    @Test
+    void importsRollUpByDayRangeAndARangeThatGainedARowIsNotMarked() {
+        Site site = sites.create(new SiteSettings("Imports", "imports" + System.nanoTime() + ".example", "UTC", "EUR",
+                null, null, 3660));
+        String key = sites.createIngestKey(site.id(), "test").key();
+        StringBuilder lines = new StringBuilder();
+        for (int i = 0; i < 30; i++) {
+            lines.append(importedSession("imp-" + (100 + i), "2026-10-" + (10 + i % 3) + "T10:00:00Z", 1 + i % 4))
+                    .append('\n');
+        }
+        post(site, key, lines.toString());
+        // the first 10 in (day, id) order are all of 10 October; another import of that day lands inside their range
+        List<SessionFact> first = repository.notRolledUp(site.id(), 10);
+        assertThat(first).extracting(SessionFact::localDay).containsOnly(java.time.LocalDate.of(2026, 10, 10));
+        post(site, key, importedSession("imp-000", "2026-10-10T11:00:00Z", 2));
+        assertThat(repository.markRolledUp(site.id(), first)).isFalse();
+        // (outside a transaction here: undo the mark the sessionizer would have rolled back)
+        jdbc.sql("UPDATE session_fact SET rolled_up = FALSE WHERE site_id = :s").param("s", site.id()).update();
+        assertThat(sessionizer.run(site.id()).importsRolledUp()).isEqualTo(31);
+        assertThat(jdbc.sql("SELECT COUNT(*) FROM session_fact WHERE site_id = :s AND rolled_up = FALSE")
+                .param("s", site.id()).query(Long.class).single()).isZero();
+        assertRollupsAddUp(site);
+        assertThat(sessionizer.run(site.id()).importsRolledUp()).isZero();
+    }
+
+    private static String importedSession(String id, String start, int pages) {
+        return """
+                {"type":"session","id":"%s","visitor":"r-%s","start":"%s","end":"%s","pageviews":%d,"engagedMs":%d,\
+                "entryPath":"/p","entryAds":2,%s"revenueMicros":%d,"impressions":%d,"viewableImpressions":1,\
+                "clicks":0,"device":"phone","source":"search","country":"PT"}""".formatted(id, id, start,
+                Instant.parse(start).plusSeconds(60L * pages), pages, 5_000L * pages,
+                pages > 1 ? "\"laterAds\":3," : "", 700L * pages, 1 + pages);
     }
 
     private boolean closed(Site site, String id) {
