@@ -7,16 +7,13 @@ import java.sql.Types;
 import java.time.Instant;
 import java.time.LocalDate;
 import java.util.ArrayList;
-import java.util.Collection;
 import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
-import java.util.Map;
 import java.util.Optional;
+import java.util.function.Consumer;
 
 import org.springframework.jdbc.core.JdbcTemplate;
-import org.springframework.jdbc.core.namedparam.MapSqlParameterSource;
-import org.springframework.jdbc.core.namedparam.NamedParameterJdbcTemplate;
 import org.springframework.stereotype.Repository;
 
 /** Reads the sessionizer's work list (ingest batches) and pageviews, and stores sessions. */
@@ -28,11 +25,15 @@ class SessionRepository {
             engaged_ms, entry_path, entry_ads, later_ads, source, device, browser, os, country, region, variant,
             revenue_micros, impressions, viewable_impressions, clicks, closed, page_detail""" + " ";
 
-    private final NamedParameterJdbcTemplate named;
+    private static final String PAGEVIEW_COLUMNS =
+            "id, ts, visitor, client_session, path, source, device, browser, os, country, region, variant, ads, engaged_ms";
+
+    /** Most keys per {@code VALUES} look-up. */
+    static final int LOOKUP = 1024;
+
     private final JdbcTemplate jdbc;
 
-    SessionRepository(NamedParameterJdbcTemplate named, JdbcTemplate jdbc) {
-        this.named = named;
+    SessionRepository(JdbcTemplate jdbc) {
         this.jdbc = jdbc;
     }
 
@@ -41,40 +42,50 @@ class SessionRepository {
         return !jdbc.queryForList("SELECT id FROM site WHERE id = ? FOR UPDATE", Long.class, siteId).isEmpty();
     }
 
-    /** Ids of committed ingest batches of the site not yet sessionized, oldest first. */
-    List<Long> batches(long siteId, int limit) {
-        return jdbc.queryForList("SELECT id FROM ingest_batch WHERE site_id = ? ORDER BY id LIMIT ?", Long.class,
-                siteId, limit);
+    /** A committed ingest batch not yet sessionized, with the newest pageview time it carried. */
+    record Batch(long id, Instant newest) {
     }
 
-    Optional<Instant> newestOf(long siteId, List<Long> batches) {
-        Timestamp ts = named.queryForObject("""
-                        SELECT MAX(newest_ts) FROM ingest_batch WHERE site_id = :site AND id IN (:ids)""",
-                new MapSqlParameterSource("site", siteId).addValue("ids", batches), Timestamp.class);
-        return Optional.ofNullable(ts).map(Timestamp::toInstant);
+    /** Committed ingest batches of the site not yet sessionized, oldest first. */
+    List<Batch> batches(long siteId, int limit) {
+        return jdbc.query("SELECT id, newest_ts FROM ingest_batch WHERE site_id = ? ORDER BY id LIMIT ?",
+                (rs, i) -> new Batch(rs.getLong(1), instant(rs, 2)), siteId, limit);
     }
 
     /**
-     * Visitors touched by these batches, with the earliest pageview time touched: their new pageviews, and the
-     * pageviews whose page-end or impressions came in the batches. Extras of a pageview not yet stored are skipped;
-     * the pageview's own arrival rebuilds its session later.
+     * The pageviews one ingest batch stored, without page-end and impressions (see {@link #withExtras}). One pass over
+     * the batch index: an equality per batch, because H2 uses an {@code IN} list only on the first column of an index
+     * and would scan every pageview of the site (docs/benchmarks.md, "Sessionizer").
      */
-    Map<String, Instant> changedVisitors(long siteId, List<Long> batches) {
-        MapSqlParameterSource params = new MapSqlParameterSource("site", siteId).addValue("ids", batches);
+    void batchPageviews(long siteId, long batch, Consumer<PageviewRow> sink) {
+        jdbc.query("SELECT " + PAGEVIEW_COLUMNS + " FROM pageview WHERE site_id = ? AND ingest_batch = ?",
+                rs -> {
+                    sink.accept(pageview(rs));
+                }, siteId, batch);
+    }
+
+    /**
+     * Visitors whose stored pageviews got a page-end or impressions in this batch, with the earliest such pageview
+     * time. Extras of a pageview not yet stored are skipped; the pageview's own arrival rebuilds its session later.
+     */
+    Map<String, Instant> extrasVisitors(long siteId, long batch) {
         Map<String, Instant> earliest = new HashMap<>();
         for (String sql : List.of("""
-                        SELECT visitor, MIN(ts) FROM pageview WHERE site_id = :site AND ingest_batch IN (:ids)
-                        GROUP BY visitor""", """
                         SELECT p.visitor, MIN(p.ts) FROM page_end e
-                        JOIN pageview p ON p.site_id = e.site_id AND p.id = e.pageview_id
-                        WHERE e.site_id = :site AND e.ingest_batch IN (:ids) GROUP BY p.visitor""", """
+                        LEFT JOIN pageview p ON p.site_id = e.site_id AND p.id = e.pageview_id
+                        WHERE e.site_id = ? AND e.ingest_batch = ? GROUP BY p.visitor""", """
                         SELECT p.visitor, MIN(p.ts) FROM impression i
-                        JOIN pageview p ON p.site_id = i.site_id AND p.id = i.pageview_id
-                        WHERE i.site_id = :site AND i.ingest_batch IN (:ids) GROUP BY p.visitor""")) {
-            named.query(sql, params, rs -> {
+                        LEFT JOIN pageview p ON p.site_id = i.site_id AND p.id = i.pageview_id
+                        WHERE i.site_id = ? AND i.ingest_batch = ? GROUP BY p.visitor""")) {
+            // LEFT JOIN: keeps the batch's rows as the outer side on H2 whatever the statistics; extras whose
+            // pageview is not stored yet come back as a NULL visitor
+            jdbc.query(sql, rs -> {
+                if (rs.getString(1) == null) {
+                    return;
+                }
                 Instant ts = rs.getTimestamp(2).toInstant();
                 earliest.merge(rs.getString(1), ts, (a, b) -> a.isBefore(b) ? a : b);
-            });
+            }, siteId, batch);
         }
         return earliest;
     }
@@ -90,54 +101,154 @@ class SessionRepository {
     }
 
     void deleteBatches(long siteId, List<Long> ids) {
-        named.update("DELETE FROM ingest_batch WHERE site_id = :site AND id IN (:ids)",
-                new MapSqlParameterSource("site", siteId).addValue("ids", ids));
+        jdbc.batchUpdate("DELETE FROM ingest_batch WHERE site_id = ? AND id = ?", ids, 1000, (ps, id) -> {
+            ps.setLong(1, siteId);
+            ps.setLong(2, id);
+        });
     }
 
-    /** Built sessions of these visitors that end at or after {@code endFrom}. */
-    List<SessionFact> tagSessions(long siteId, Collection<String> visitors, Instant endFrom) {
-        return named.query("SELECT " + SESSION_COLUMNS + """
-                         FROM session_fact
-                        WHERE site_id = :site AND origin = 'tag' AND visitor IN (:visitors) AND end_ts >= :from""",
-                new MapSqlParameterSource("site", siteId).addValue("visitors", visitors)
-                        .addValue("from", Timestamp.from(endFrom)),
-                SessionRepository::session);
+    /**
+     * Built sessions of these visitors (at most {@link #LOOKUP} of them) that end at or after {@code endFrom}. The
+     * visitors are a {@code VALUES} list on the left of a LEFT JOIN, so both databases look each one up in the
+     * (site, visitor, start) index: H2 never reorders an outer join. On H2 an {@code IN} list on the index's second
+     * column is filtered in a scan of the whole site, {@code IN (subquery)} re-runs the subquery for every row, and an
+     * inner join with the list may keep a plan made while the table was empty (docs/benchmarks.md, "Sessionizer").
+     * The origin is checked here, not in SQL: with {@code origin = 'tag'} in the join the primary key (site, origin,
+     * id) ties with the visitor index on H2 until statistics exist, and a plan made then scans every session.
+     */
+    List<SessionFact> tagSessions(long siteId, List<String> visitors, Instant endFrom) {
+        return jdbc.query("SELECT " + prefixed("s", SESSION_COLUMNS) + " FROM " + values(visitors.size(), "visitor", 32)
+                        + """
+                         LEFT JOIN session_fact s ON s.site_id = ? AND s.visitor = v.visitor AND s.end_ts >= ?""",
+                ps -> {
+                    int i = bindPadded(ps, visitors);
+                    ps.setLong(i++, siteId);
+                    ps.setTimestamp(i, Timestamp.from(endFrom));
+                }, (rs, n) -> rs.getString("id") == null || !"tag".equals(rs.getString("origin")) ? null : session(rs, n))
+                .stream().filter(java.util.Objects::nonNull).toList();
     }
 
-    /** Pageviews of these visitors from {@code from} on, with page-end and impressions, by visitor and time. */
-    List<PageviewRow> pageviews(long siteId, Collection<String> visitors, Instant from) {
-        return named.query("""
-                        SELECT p.id, p.ts, p.visitor, p.client_session, p.path, p.source, p.device, p.browser, p.os,
-                               p.country, p.region, p.variant, p.ads, COALESCE(e.engaged_ms, p.engaged_ms) AS engaged,
-                               COALESCE(SUM(i.revenue_micros), 0) AS revenue, COUNT(i.id) AS impressions,
-                               COALESCE(SUM(CASE WHEN i.viewable THEN 1 ELSE 0 END), 0) AS viewable,
-                               COALESCE(SUM(CASE WHEN i.clicked THEN 1 ELSE 0 END), 0) AS clicks
-                        FROM pageview p
-                        LEFT JOIN page_end e ON e.site_id = p.site_id AND e.pageview_id = p.id
-                        LEFT JOIN impression i ON i.site_id = p.site_id AND i.pageview_id = p.id
-                        WHERE p.site_id = :site AND p.visitor IN (:visitors) AND p.ts >= :from
-                        GROUP BY p.id, p.ts, p.visitor, p.client_session, p.path, p.source, p.device, p.browser, p.os,
-                                 p.country, p.region, p.variant, p.ads, e.engaged_ms, p.engaged_ms
-                        ORDER BY p.visitor, p.ts, p.id""",
-                new MapSqlParameterSource("site", siteId).addValue("visitors", visitors)
-                        .addValue("from", Timestamp.from(from)),
-                (rs, i) -> {
-                    long engaged = rs.getLong("engaged");
-                    Long engagedMs = rs.wasNull() ? null : engaged;
-                    return new PageviewRow(rs.getString("id"), instant(rs, 2), rs.getString("visitor"),
-                            rs.getString("client_session"), rs.getString("path"), rs.getString("source"),
-                            rs.getString("device"), rs.getString("browser"), rs.getString("os"),
-                            rs.getString("country"), rs.getString("region"), rs.getString("variant"),
-                            rs.getInt("ads"), engagedMs, rs.getLong("revenue"), rs.getInt("impressions"),
-                            rs.getInt("viewable"), rs.getInt("clicks"));
-                });
+    /**
+     * Stored pageviews of these visitors (at most {@link #LOOKUP}) from {@code from} on, without page-end and
+     * impressions, in no particular order (the caller sorts each visitor's pages).
+     */
+    List<PageviewRow> visitorPageviews(long siteId, List<String> visitors, Instant from) {
+        return jdbc.query("SELECT " + prefixed("p", PAGEVIEW_COLUMNS) + " FROM " + values(visitors.size(), "visitor", 32)
+                        + " LEFT JOIN pageview p ON p.site_id = ? AND p.visitor = v.visitor AND p.ts >= ?",
+                ps -> {
+                    int i = bindPadded(ps, visitors);
+                    ps.setLong(i++, siteId);
+                    ps.setTimestamp(i, Timestamp.from(from));
+                }, (rs, n) -> rs.getString(1) == null ? null : pageview(rs))
+                .stream().filter(java.util.Objects::nonNull).toList();
     }
 
-    void deleteTagSessions(long siteId, List<String> ids) {
-        for (List<String> chunk : chunks(ids, 1000)) {
-            named.update("DELETE FROM session_fact WHERE site_id = :site AND origin = 'tag' AND id IN (:ids)",
-                    new MapSqlParameterSource("site", siteId).addValue("ids", chunk));
+    /**
+     * The same pageviews with their page-end (its engaged time replaces the pageview's own) and their impressions
+     * summed. Two look-ups by pageview id per {@link #LOOKUP} pageviews.
+     */
+    List<PageviewRow> withExtras(long siteId, List<PageviewRow> rows) {
+        if (rows.isEmpty()) {
+            return rows;
         }
+        Map<String, Long> engaged = new HashMap<>();
+        Map<String, long[]> ads = new HashMap<>();
+        List<String> ids = rows.stream().map(PageviewRow::id).toList();
+        for (List<String> chunk : chunks(ids, LOOKUP)) {
+            jdbc.query("SELECT e.pageview_id, e.engaged_ms FROM " + values(chunk.size(), "pv", 64)
+                            + " LEFT JOIN page_end e ON e.site_id = ? AND e.pageview_id = v.pv",
+                    ps -> ps.setLong(bindPadded(ps, chunk), siteId),
+                    rs -> {
+                        if (rs.getString(1) != null) {
+                            engaged.put(rs.getString(1), rs.getLong(2));
+                        }
+                    });
+            jdbc.query("""
+                            SELECT i.pageview_id, SUM(i.revenue_micros), COUNT(*),
+                                   SUM(CASE WHEN i.viewable THEN 1 ELSE 0 END), SUM(CASE WHEN i.clicked THEN 1 ELSE 0 END)
+                            FROM""" + " " + values(chunk.size(), "pv", 64) + """
+                             LEFT JOIN impression i ON i.site_id = ? AND i.pageview_id = v.pv GROUP BY i.pageview_id""",
+                    ps -> ps.setLong(bindPadded(ps, chunk), siteId),
+                    rs -> {
+                        if (rs.getString(1) == null) {
+                            return;
+                        }
+                        ads.put(rs.getString(1), new long[]{rs.getLong(2), rs.getLong(3), rs.getLong(4), rs.getLong(5)});
+                    });
+        }
+        if (engaged.isEmpty() && ads.isEmpty()) {
+            return rows;
+        }
+        List<PageviewRow> out = new ArrayList<>(rows.size());
+        for (PageviewRow p : rows) {
+            Long e = engaged.get(p.id());
+            long[] a = ads.get(p.id());
+            out.add(e == null && a == null ? p : new PageviewRow(p.id(), p.ts(), p.visitor(), p.clientSession(),
+                    p.path(), p.source(), p.device(), p.browser(), p.os(), p.country(), p.region(), p.variant(),
+                    p.ads(), e != null ? e : p.engagedMs(), a == null ? 0 : a[0], a == null ? 0 : (int) a[1],
+                    a == null ? 0 : (int) a[2], a == null ? 0 : (int) a[3]));
+        }
+        return out;
+    }
+
+    /** {@code (VALUES (CAST(? AS VARCHAR(n))), …) AS v (column)} with a padded number of rows (see bindPadded). */
+    private static String values(int n, String column, int length) {
+        int rows = padded(n);
+        StringBuilder sb = new StringBuilder(rows * 30 + 40).append("(VALUES ");
+        String row = "(CAST(? AS VARCHAR(" + length + ")))";
+        for (int i = 0; i < rows; i++) {
+            sb.append(i == 0 ? "" : ", ").append(row);
+        }
+        return sb.append(") AS v (").append(column).append(')').toString();
+    }
+
+    /**
+     * Binds the keys from parameter 1 on and NULL for the padding rows (which match nothing); returns the next
+     * parameter index. Padding to a power of two keeps the number of distinct statements small for the databases'
+     * statement caches.
+     */
+    private static int bindPadded(java.sql.PreparedStatement ps, List<String> keys) throws SQLException {
+        int rows = padded(keys.size());
+        for (int i = 0; i < rows; i++) {
+            if (i < keys.size()) {
+                ps.setString(i + 1, keys.get(i));
+            } else {
+                ps.setNull(i + 1, Types.VARCHAR);
+            }
+        }
+        return rows + 1;
+    }
+
+    private static int padded(int n) {
+        if (n > LOOKUP) {
+            throw new IllegalArgumentException("at most " + LOOKUP + " keys per look-up, got " + n);
+        }
+        return Math.max(16, Integer.highestOneBit(Math.max(1, n - 1)) << 1);
+    }
+
+    private static String prefixed(String alias, String columns) {
+        StringBuilder sb = new StringBuilder();
+        for (String c : columns.split(",")) {
+            sb.append(sb.isEmpty() ? "" : ", ").append(alias).append('.').append(c.strip());
+        }
+        return sb.append(' ').toString();
+    }
+
+    private static PageviewRow pageview(ResultSet rs) throws SQLException {
+        long engaged = rs.getLong(14);
+        Long engagedMs = rs.wasNull() ? null : engaged;
+        return new PageviewRow(rs.getString(1), instant(rs, 2), rs.getString(3), rs.getString(4), rs.getString(5),
+                rs.getString(6), rs.getString(7), rs.getString(8), rs.getString(9), rs.getString(10),
+                rs.getString(11), rs.getString(12), rs.getInt(13), engagedMs, 0, 0, 0, 0);
+    }
+
+    /** One keyed delete per session, batched (an {@code IN} list on the key's third column scans on H2). */
+    void deleteTagSessions(long siteId, List<String> ids) {
+        jdbc.batchUpdate("DELETE FROM session_fact WHERE site_id = ? AND origin = 'tag' AND id = ?", ids, 1000,
+                (ps, id) -> {
+                    ps.setLong(1, siteId);
+                    ps.setString(2, id);
+                });
     }
 
     void insert(List<SessionFact> sessions, Instant now) {
@@ -247,22 +358,42 @@ class SessionRepository {
         return n[0];
     }
 
-    /** Sessions stored without rollup contributions yet (imports). */
+    /**
+     * The next imported sessions stored without rollup contributions yet, in (local day, id) order through the
+     * pending index (V7), so that a chunk covers few days and its contributions aggregate into few rollup cells.
+     * Only imports are ever stored without their contributions (built sessions and bulk loads add them at once).
+     */
     List<SessionFact> notRolledUp(long siteId, int limit) {
         return jdbc.query("SELECT " + SESSION_COLUMNS + """
-                         FROM session_fact WHERE site_id = ? AND rolled_up = FALSE ORDER BY id LIMIT ?""",
+                         FROM session_fact WHERE site_id = ? AND rolled_up = FALSE AND origin = 'import'
+                        ORDER BY local_day, id LIMIT ?""",
                 SessionRepository::session, siteId, limit);
     }
 
-    void markRolledUp(long siteId, List<SessionFact> sessions) {
-        jdbc.batchUpdate("""
-                        UPDATE session_fact SET rolled_up = TRUE, page_detail = ?
-                        WHERE site_id = ? AND origin = ? AND id = ?""",
+    /**
+     * Marks the sessions read by {@link #notRolledUp} (in its order) as rolled up with one UPDATE over their
+     * (day, id) range. Returns false, having changed nothing the caller keeps, when the range held more pending rows
+     * than were read (an import committed new ones into it meanwhile): the caller must roll back and use
+     * {@link #markRolledUpOneByOne}. Their page detail is not stored: {@link ImportedPages} derives it from the
+     * totals wherever it is needed.
+     */
+    boolean markRolledUp(long siteId, List<SessionFact> sessions) {
+        SessionFact first = sessions.get(0);
+        SessionFact last = sessions.get(sessions.size() - 1);
+        int n = jdbc.update("""
+                        UPDATE session_fact SET rolled_up = TRUE
+                        WHERE site_id = ? AND rolled_up = FALSE AND origin = 'import' AND local_day BETWEEN ? AND ?
+                          AND (local_day < ? OR id <= ?)""",
+                siteId, first.localDay(), last.localDay(), last.localDay(), last.id());
+        return n == sessions.size();
+    }
+
+    void markRolledUpOneByOne(long siteId, List<SessionFact> sessions) {
+        jdbc.batchUpdate("UPDATE session_fact SET rolled_up = TRUE WHERE site_id = ? AND origin = ? AND id = ?",
                 sessions, 1000, (ps, s) -> {
-                    ps.setString(1, PageStat.encode(s.pages()));
-                    ps.setLong(2, siteId);
-                    ps.setString(3, s.origin());
-                    ps.setString(4, s.id());
+                    ps.setLong(1, siteId);
+                    ps.setString(2, s.origin());
+                    ps.setString(3, s.id());
                 });
     }
 

@@ -71,52 +71,89 @@ final class IngestBenchmark {
 
     public static void main(String[] args) throws Exception {
         long events = Bench.arg(args, "events", 1_000_000);
+        boolean direct = Bench.flag(args, "direct");
+        boolean pg = Bench.flag(args, "pg");
         int batches = (int) Math.max(1, events / BATCH);
         Instant base = Instant.now().minusSeconds(3 * 86_400);
-        System.out.printf("ingest benchmark: %,d pageviews in batches of %,d, max heap %d MB%n", (long) batches * BATCH,
-                BATCH, Runtime.getRuntime().maxMemory() >> 20);
+        System.out.printf("ingest benchmark: %,d pageviews in batches of %,d, max heap %d MB%s%s%n",
+                (long) batches * BATCH, BATCH, Runtime.getRuntime().maxMemory() >> 20,
+                direct ? ", loaded by JDBC (no HTTP)" : "", pg ? ", PostgreSQL" : ", H2 file");
 
-        Path appDir = Files.createTempDirectory("foldline-bench-app");
-        double httpRate;
+        String appUrl;
+        String user = pg ? "foldline" : "sa";
+        String password = pg ? "foldline" : "";
+        if (pg) {
+            // the benchmark empties its schema first: -Dpg.schema names one of its own in a shared database
+            String schema = System.getProperty("pg.schema", "public");
+            if (!schema.matches("[a-z_][a-z0-9_]*")) {
+                throw new IllegalArgumentException("pg.schema must be a plain lower-case name");
+            }
+            appUrl = System.getProperty("pg.url", "jdbc:postgresql://127.0.0.1:5432/foldline_bench")
+                    + (schema.equals("public") ? "" : "?currentSchema=" + schema);
+            try (Connection c = DriverManager.getConnection(appUrl, user, password);
+                 java.sql.Statement s = c.createStatement()) {
+                s.execute("DROP SCHEMA IF EXISTS " + schema + " CASCADE");
+                s.execute("CREATE SCHEMA " + schema);
+            }
+        } else {
+            appUrl = "jdbc:h2:file:" + Files.createTempDirectory("foldline-bench-app").resolve("foldline") + H2_OPTIONS;
+        }
+        double httpRate = 0;
         try (ConfigurableApplicationContext app = new SpringApplicationBuilder(FoldlineApplication.class).run(
                 "--server.port=0", "--spring.main.banner-mode=off", "--logging.level.root=WARN",
-                "--spring.datasource.url=jdbc:h2:file:" + appDir.resolve("foldline") + H2_OPTIONS,
+                "--spring.datasource.url=" + appUrl, "--spring.datasource.username=" + user,
+                "--spring.datasource.password=" + password,
                 "--foldline.demo.enabled=false", "--foldline.admin.initial-password=bench-password",
-                "--foldline.sessions.enabled=false")) {
+                "--foldline.sessions.enabled=false", "--foldline.alerts.scheduler-enabled=false")) {
             int port = ((WebServerApplicationContext) app).getWebServer().getPort();
             Sites sites = app.getBean(Sites.class);
             Site site = sites.create(new SiteSettings("Bench", "bench.example", "UTC", "EUR", null, null, null));
             NewIngestKey key = sites.createIngestKey(site.id(), "bench");
             URI uri = URI.create("http://127.0.0.1:" + port + "/api/v1/sites/" + site.id() + "/events");
             HttpClient http = HttpClient.newBuilder().version(HttpClient.Version.HTTP_1_1).build();
-            // warm-up on a separate id range, not counted
-            post(http, uri, key.key(), batch(batches + 1, base));
             AtomicLong accepted = new AtomicLong();
-            long start = System.nanoTime();
-            List<Thread> clients = new ArrayList<>();
-            for (int c = 0; c < 2; c++) {
-                int client = c;
-                Thread t = new Thread(() -> {
-                    for (int b = client; b < batches; b += 2) {
-                        accepted.addAndGet(post(http, uri, key.key(), batch(b, base)));
-                    }
-                });
-                clients.add(t);
-                t.start();
+            if (direct) {
+                long start = System.nanoTime();
+                accepted.set(load(app.getBean(javax.sql.DataSource.class), site.id(), batches, base));
+                System.out.printf("JDBC load into the application's database: %,d pageviews in %.1f s%n",
+                        accepted.get(), (System.nanoTime() - start) / 1e9);
+            } else {
+                // warm-up on a separate id range, not counted
+                post(http, uri, key.key(), batch(batches + 1, base));
+                long start = System.nanoTime();
+                List<Thread> clients = new ArrayList<>();
+                for (int c = 0; c < 2; c++) {
+                    int client = c;
+                    Thread t = new Thread(() -> {
+                        for (int b = client; b < batches; b += 2) {
+                            accepted.addAndGet(post(http, uri, key.key(), batch(b, base)));
+                        }
+                    });
+                    clients.add(t);
+                    t.start();
+                }
+                for (Thread t : clients) {
+                    t.join();
+                }
+                double seconds = (System.nanoTime() - start) / 1e9;
+                httpRate = accepted.get() / seconds;
+                System.out.printf("HTTP ingest (2 clients, NDJSON): %,d accepted in %.1f s = %,.0f events/s%n",
+                        accepted.get(), seconds, httpRate);
             }
-            for (Thread t : clients) {
-                t.join();
-            }
-            double seconds = (System.nanoTime() - start) / 1e9;
-            httpRate = accepted.get() / seconds;
-            System.out.printf("HTTP ingest (2 clients, NDJSON): %,d accepted in %.1f s = %,.0f events/s%n",
-                    accepted.get(), seconds, httpRate);
             // the sessionizer on the same pageviews (issue #3 asks for at least 100,000 pageviews/s)
             long s0 = System.nanoTime();
             var report = app.getBean(com.example.foldline.sessions.Sessionizer.class).run(site.id());
             double sessionizerSeconds = (System.nanoTime() - s0) / 1e9;
+            double sessionizerRate = accepted.get() / sessionizerSeconds;
             System.out.printf("sessionizer: %,d pageviews into %,d sessions in %.1f s = %,.0f pageviews/s%n",
-                    accepted.get(), report.sessionsWritten(), sessionizerSeconds, accepted.get() / sessionizerSeconds);
+                    accepted.get(), report.sessionsWritten(), sessionizerSeconds, sessionizerRate);
+            // reference in the same database: one plain ordered read of the same pageview rows, the floor of any
+            // sessionizer (it has to read them at least once, in visitor and time order)
+            double readRate = orderedRead(app.getBean(javax.sql.DataSource.class), site.id());
+            System.out.printf("ratio sessionizer / plain ordered read = %.2f%n", sessionizerRate / readRate);
+        }
+        if (direct) {
+            return;
         }
 
         Path refDir = Files.createTempDirectory("foldline-bench-ref");
@@ -154,6 +191,88 @@ final class IngestBenchmark {
         System.out.printf("plain JDBC batch insert (1 connection): %,d rows in %.1f s = %,.0f rows/s%n", rows, seconds,
                 jdbcRate);
         System.out.printf("ratio HTTP / plain JDBC = %.2f (goal >= 0.50)%n", httpRate / jdbcRate);
+    }
+
+    /**
+     * Writes the event stream straight into the application's tables as the ingest API would (one ingest_batch row
+     * per 5,000 pageviews, a commit each), for runs that time the sessionizer only.
+     */
+    private static long load(javax.sql.DataSource ds, long siteId, int batches, Instant base) throws Exception {
+        long rows = 0;
+        try (Connection c = ds.getConnection()) {
+            c.setAutoCommit(false);
+            Timestamp received = Timestamp.from(Instant.now());
+            for (int b = 0; b < batches; b++) {
+                long batchId;
+                Instant newest = null;
+                try (PreparedStatement ps = c.prepareStatement("INSERT INTO ingest_batch (site_id) VALUES (?)",
+                        new String[]{"id"})) {
+                    ps.setLong(1, siteId);
+                    ps.executeUpdate();
+                    try (var keys = ps.getGeneratedKeys()) {
+                        keys.next();
+                        batchId = keys.getLong(1);
+                    }
+                }
+                try (PreparedStatement ps = c.prepareStatement("""
+                        INSERT INTO pageview (site_id, id, ts, visitor, path, source, device, browser, country, ads,
+                                              received_at, ingest_batch) VALUES (?, ?, ?, ?, ?, ?, ?, 'Lumen', ?, ?, ?, ?)""")) {
+                    for (Row row : batch(b, base)) {
+                        ps.setLong(1, siteId);
+                        ps.setString(2, row.id());
+                        ps.setTimestamp(3, Timestamp.from(row.ts()));
+                        ps.setString(4, row.visitor());
+                        ps.setString(5, row.path());
+                        ps.setString(6, row.source());
+                        ps.setString(7, row.device());
+                        ps.setString(8, row.country());
+                        ps.setInt(9, row.ads());
+                        ps.setTimestamp(10, received);
+                        ps.setLong(11, batchId);
+                        ps.addBatch();
+                        newest = newest == null || row.ts().isAfter(newest) ? row.ts() : newest;
+                        rows++;
+                    }
+                    ps.executeBatch();
+                }
+                try (PreparedStatement ps = c.prepareStatement("UPDATE ingest_batch SET newest_ts = ? WHERE id = ?")) {
+                    ps.setTimestamp(1, Timestamp.from(newest));
+                    ps.setLong(2, batchId);
+                    ps.executeUpdate();
+                }
+                c.commit();
+            }
+        }
+        return rows;
+    }
+
+    /** Reads every pageview of the site once, ordered by visitor and time, as plain JDBC; returns rows per second. */
+    static double orderedRead(javax.sql.DataSource ds, long siteId) throws Exception {
+        long start = System.nanoTime();
+        long rows = 0;
+        long check = 0;
+        try (Connection c = ds.getConnection()) {
+            c.setAutoCommit(false); // PostgreSQL streams with a fetch size only inside a transaction
+            try (PreparedStatement ps = c.prepareStatement("""
+                    SELECT id, ts, visitor, client_session, path, source, device, browser, os, country, region, variant,
+                           ads, engaged_ms
+                    FROM pageview WHERE site_id = ? ORDER BY visitor, ts, id""")) {
+                ps.setFetchSize(5_000);
+                ps.setLong(1, siteId);
+                try (var rs = ps.executeQuery()) {
+                    while (rs.next()) {
+                        rows++;
+                        check += rs.getString(1).length() + rs.getTimestamp(2).getNanos() + rs.getString(3).length()
+                                + rs.getString(5).length() + rs.getInt(13);
+                    }
+                }
+            }
+            c.commit();
+        }
+        double seconds = (System.nanoTime() - start) / 1e9;
+        System.out.printf("reference, plain JDBC read of the same pageviews ordered by visitor and time: %,d rows in "
+                + "%.1f s = %,.0f rows/s (checksum %d)%n", rows, seconds, rows / seconds, check % 1000);
+        return rows / seconds;
     }
 
     private static long post(HttpClient http, URI uri, String key, List<Row> rows) {
