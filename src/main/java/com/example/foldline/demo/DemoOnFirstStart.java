@@ -31,7 +31,8 @@ class DemoOnFirstStart implements ApplicationRunner {
     public void run(ApplicationArguments args) {
         // only the embedded database gets demo data; a server database is treated as production
         if (properties.enabled() && databaseUrl.startsWith("jdbc:h2:") && sites.isEmpty()) {
-            publisher.seed(properties.seed(), properties.days(), properties.scale());
+            // quick start: the newest rollup views are filled in the background once the application is ready
+            publisher.seed(properties.seed(), properties.days(), properties.scale(), true);
         }
     }
 }

@@ -14,6 +14,8 @@ import com.example.foldline.accounts.Accounts;
 import com.example.foldline.accounts.SiteAccess;
 import com.example.foldline.accounts.SiteRole;
 import com.example.foldline.sessions.BulkSessions;
+import com.example.foldline.sessions.Cuboid;
+import com.example.foldline.sessions.RollupFill;
 import com.example.foldline.sessions.SessionInput;
 import com.example.foldline.sites.Site;
 import com.example.foldline.sites.SiteSettings;
@@ -34,8 +36,11 @@ public class DemoPublisher {
     private final Clock clock;
     private final SiteAccess access;
     private final Views views;
+    private final RollupFill fill;
 
-    DemoPublisher(Sites sites, Accounts accounts, BulkSessions bulk, Clock clock, SiteAccess access, Views views) {
+    DemoPublisher(Sites sites, Accounts accounts, BulkSessions bulk, Clock clock, SiteAccess access, Views views,
+                  RollupFill fill) {
+        this.fill = fill;
         this.sites = sites;
         this.accounts = accounts;
         this.bulk = bulk;
@@ -50,6 +55,15 @@ public class DemoPublisher {
 
     /** Creates the three sites (and the demo login) and simulates {@code days} days of traffic. */
     public Seeded seed(long seed, int days, double scale) {
+        return seed(seed, days, scale, false);
+    }
+
+    /**
+     * As {@link #seed(long, int, double)}; with {@code quickStart}, the rollup views of the first lattice are written
+     * at once and the newer views are left to the background fill ({@link RollupFill}), which starts when the
+     * application is ready. The first start is then quicker; answers read the older views until the fill is done.
+     */
+    public Seeded seed(long seed, int days, double scale, boolean quickStart) {
         long started = System.nanoTime();
         long demoUser = accounts.find(DEMO_USER).orElseGet(() -> accounts.create(DEMO_USER, DEMO_PASSWORD, false)).id();
         List<Site> created = new ArrayList<>();
@@ -60,6 +74,9 @@ public class DemoPublisher {
             sites.createIngestKey(site.id(), "demo tag");
             access.grantUser(site.id(), DEMO_USER, SiteRole.EDITOR);
             created.add(site);
+            if (quickStart) {
+                fill.defer(site.id(), Cuboid.LATTICE);
+            }
             LocalDate last = LocalDate.now(clock.withZone(ZoneId.of(spec.timezone()))).minusDays(1);
             DemoSimulator simulator = new DemoSimulator(spec, seed, scale, last);
             List<SessionInput> week = new ArrayList<>();
@@ -67,7 +84,7 @@ public class DemoPublisher {
                 week.addAll(simulator.day(day));
                 // a week per transaction: fewer commits, each one a full write of the embedded database's pages
                 if (day.getDayOfWeek() == java.time.DayOfWeek.SUNDAY || day.equals(last)) {
-                    total += bulk.store(site, week);
+                    total += bulk.store(site, week, quickStart ? 1 : Cuboid.LATTICE);
                     week = new ArrayList<>();
                 }
             }

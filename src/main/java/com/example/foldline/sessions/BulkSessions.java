@@ -29,8 +29,16 @@ public class BulkSessions {
         this.clock = clock;
     }
 
-    /** Stores the sessions (one transaction); returns how many were new. */
+    /** Stores the sessions (one transaction) with their contributions to every view; returns how many were new. */
     public int store(Site site, List<SessionInput> inputs) {
+        return store(site, inputs, Cuboid.LATTICE);
+    }
+
+    /**
+     * Stores the sessions with their contributions to the views of lattices up to {@code lattice} only; the newer
+     * views must have been left to {@link RollupFill#defer}. Returns how many sessions were new.
+     */
+    public int store(Site site, List<SessionInput> inputs, int lattice) {
         List<SessionFact> facts = new ArrayList<>(inputs.size());
         for (SessionInput in : inputs) {
             facts.add(fact(site, in));
@@ -38,7 +46,9 @@ public class BulkSessions {
         return tx.execute(status -> {
             repository.lockSite(site.id());
             List<SessionFact> fresh = repository.insertImported(facts, clock.instant());
-            Contributions contributions = new Contributions();
+            Contributions contributions = lattice >= Cuboid.LATTICE ? new Contributions()
+                    : new Contributions(Cuboid.SESSION.stream().filter(c -> c.lattice() <= lattice).toList(),
+                    Cuboid.PAGE.stream().filter(c -> c.lattice() <= lattice).toList());
             fresh.forEach(s -> contributions.add(s, +1));
             rollups.apply(site.id(), contributions);
             return fresh.size();

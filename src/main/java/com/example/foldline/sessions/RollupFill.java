@@ -138,6 +138,16 @@ public class RollupFill {
         return new Report(siteId, lattice, days, total, completeFrom);
     }
 
+    /**
+     * Leaves the views of {@code lattice} of a new site to the background fill: call before storing its first
+     * sessions with {@link BulkSessions#store(com.example.foldline.sites.Site, List, int)} up to an older lattice.
+     * Until the fill is done, questions on the site read the older views (or the sessions), so answers stay whole.
+     */
+    public void defer(long siteId, int lattice) {
+        jdbc.update("INSERT INTO rollup_fill (site_id, lattice, state) VALUES (?, ?, 'pending')", siteId, lattice);
+        refresh();
+    }
+
     /** Marks a site's views as consistent again (after a rebuild from raw events, which fills every view). */
     void forget(long siteId) {
         jdbc.update("DELETE FROM rollup_fill WHERE site_id = ?", siteId);

@@ -40,7 +40,7 @@ class RollupWriter {
             return;
         }
         // cells of days the table has no rows for yet (bulk loads of history) are inserted without trying updates
-        int[][] updated = fresh || !hasRows("rollup_session", siteId, rows.stream().map(e -> e.getKey().day()).toList())
+        int[][] updated = fresh || !hasRows("rollup_session", FIRST_SESSION_VIEW, siteId, rows.stream().map(e -> e.getKey().day()).toList())
                 ? allMissing(rows.size()) : jdbc.batchUpdate("""
                         UPDATE rollup_session SET sessions = sessions + ?, bounces = bounces + ?,
                                pageviews = pageviews + ?, pageviews_sq = pageviews_sq + ?, engaged_ms = engaged_ms + ?,
@@ -70,7 +70,7 @@ class RollupWriter {
         if (rows.isEmpty()) {
             return;
         }
-        int[][] updated = fresh || !hasRows("rollup_page", siteId, rows.stream().map(e -> e.getKey().day()).toList())
+        int[][] updated = fresh || !hasRows("rollup_page", FIRST_PAGE_VIEW, siteId, rows.stream().map(e -> e.getKey().day()).toList())
                 ? allMissing(rows.size()) : jdbc.batchUpdate("""
                         UPDATE rollup_page SET pageviews = pageviews + ?, exits = exits + ?, engaged_ms = engaged_ms + ?,
                                revenue_micros = revenue_micros + ?, revenue_sq = revenue_sq + ?,
@@ -202,12 +202,23 @@ class RollupWriter {
         ps.setInt(o + 20, k.engagedBucket());
     }
 
-    private boolean hasRows(String table, long siteId, List<java.time.LocalDate> days) {
+    /**
+     * Views of the first lattice: every day that has rows in a rollup table has rows in these (each session adds to
+     * every view, and these were filled from the start), so asking one of them is enough, and it is a range of the
+     * primary key (site, view, day) instead of a scan of the site's rows.
+     */
+    private static final int FIRST_SESSION_VIEW = Cuboid.SESSION.stream().filter(c -> c.lattice() == 1).findFirst()
+            .orElseThrow().id();
+    private static final int FIRST_PAGE_VIEW = Cuboid.PAGE.stream().filter(c -> c.lattice() == 1).findFirst()
+            .orElseThrow().id();
+
+    private boolean hasRows(String table, int view, long siteId, List<java.time.LocalDate> days) {
         java.time.LocalDate min = days.stream().min(java.util.Comparator.naturalOrder()).orElseThrow();
         java.time.LocalDate max = days.stream().max(java.util.Comparator.naturalOrder()).orElseThrow();
         // the table name is one of two constants, never input
         return Boolean.TRUE.equals(jdbc.queryForObject("SELECT EXISTS (SELECT 1 FROM " + table
-                + " WHERE site_id = ? AND local_day BETWEEN ? AND ?)", Boolean.class, siteId, Date.valueOf(min),
+                + " WHERE site_id = ? AND cuboid = ? AND local_day BETWEEN ? AND ?)", Boolean.class, siteId, view,
+                Date.valueOf(min),
                 Date.valueOf(max)));
     }
 
