@@ -45,6 +45,21 @@ export function render(ctx) {
     formReload().then(() => document.querySelector('#rule-form [name=name]').focus());
   };
 
+  // a rule's state changes with the values behind them, read when opened
+  const history = (r) => {
+    const box = h('details.history', null, h('summary', 'History'));
+    box.addEventListener('toggle', async () => {
+      if (!box.open || box.dataset.loaded) return;
+      box.dataset.loaded = 'true';
+      const list = await api.get(`${base}/rules/${r.id}/history`, 'limit=20', signal).catch((e) => e);
+      box.append(list instanceof Error ? h('p.error', list.message) : table('history-' + r.id, [
+        ['Window ends', (c) => at(c.windowEnd)], ['Change', (c) => `${STATES[c.from][0]} → ${STATES[c.to][0]}`],
+        ['Value', (c) => metricValue(fmt, r.definition.metric, c.observed)], ['Why', (c) => c.reason]],
+      list, 'No changes yet.'));
+    });
+    return box;
+  };
+
   const notices = section(ctx, 'Notifications', async (reload) => {
     const list = await api.get(base + '/notifications', 'limit=50', signal);
     const again = () => (ctx.unread(), reload());
@@ -64,7 +79,7 @@ export function render(ctx) {
   const rules = section(ctx, 'Rules', async (reload) => {
     rulesReload = reload;
     return table('alert-rules', [
-      ['Rule', (r) => [h('strong', r.definition.name), h('div.quiet', r.description)]],
+      ['Rule', (r) => [h('strong', r.definition.name), h('div.quiet', r.description), history(r)]],
       ['State', (r) => [h('span.badge', { class: r.state === 'RAISED' && 'worse', text: STATES[r.state][0] }),
         r.stateSince && ` since ${at(r.stateSince)}`, h('div.quiet', STATES[r.state][1]),
         muted(r) && h('div', `Muted until ${fmt.when(r.mutedUntil)}`)]],

@@ -723,6 +723,15 @@ class BrowserUiTests {
         assertThat(rules.getText()).contains("Bounce above 15 %", "Phone and desktop bounce", "Raised",
                 "in breach; notified");
         waitFor("bell", d -> "2".equals(d.findElement(By.id("bell-count")).getText()));
+        // a rule's history: its state change with the value and the reason the evaluator recorded
+        JsonNode raisedRule = json.readTree(getApi(gazette, "/alerts/rules").body()).get(0);
+        JsonNode change = json.readTree(getApi(gazette, "/alerts/rules/" + raisedRule.get("id").asLong()
+                + "/history").body()).get(0);
+        ruleRow(raisedRule.get("definition").get("name").stringValue()).findElement(By.tagName("summary")).click();
+        waitFor("history", d -> !d.findElements(By.id("history-" + raisedRule.get("id").asLong())).isEmpty());
+        assertThat(driver.findElement(By.id("history-" + raisedRule.get("id").asLong())).getText())
+                .contains("Calm → Raised", change.get("reason").stringValue());
+        ruleRow(raisedRule.get("definition").get("name").stringValue()).findElement(By.tagName("summary")).click();
         assertThat(driver.findElement(By.id("alert-notifications")).getText())
                 .contains("Raised: Bounce above 15 % on Harbour Gazette");
 
