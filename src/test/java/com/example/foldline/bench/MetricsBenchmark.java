@@ -51,6 +51,7 @@ final class MetricsBenchmark {
         long sessions = Bench.arg(args, "sessions", 1_000_000);
         int runs = (int) Bench.arg(args, "runs", 30);
         boolean pg = Bench.flag(args, "pg");
+        timeFill = !Bench.flag(args, "no-fill");
         double scale = sessions / (2250.0 * 90);
         System.out.printf("metrics benchmark: about %,d sessions over 90 days (demo scale %.2f), %d calls per answer, "
                 + "max heap %d MB%n", sessions, scale, runs, Runtime.getRuntime().maxMemory() >> 20);
@@ -140,10 +141,15 @@ final class MetricsBenchmark {
                     fallbacks.isEmpty() ? "none" : fallbacks);
             Map<String, double[]> result = new LinkedHashMap<>();
             times.forEach((k, v) -> result.put(k, percentiles(v)));
-            timeFill(name, app, site.id());
+            if (timeFill) {
+                timeFill(name, app, site.id());
+            }
             return result;
         }
     }
+
+    /** --no-fill skips timing the fill of the lattice-2 views (minutes at 10M sessions). */
+    private static boolean timeFill;
 
     /** Empties the news site's lattice-2 views, marks it as migration V8 does, and times filling them again. */
     static void timeFill(String name, ConfigurableApplicationContext app, long siteId) {
@@ -229,32 +235,49 @@ final class MetricsBenchmark {
     }
 
     /** The news site's closed sessions, kept for the DuckDB side of the comparison. */
-    private static List<Object[]> exported;
+    /** The news site's closed sessions as CSV for DuckDB, written once while streaming them (10M do not fit -Xmx512m). */
+    private static Path exported;
+    private static long exportedRows;
     private static LocalDate exportedLast;
 
     private static void exportOnce(DataSource ds) {
         if (exported != null) {
             return;
         }
-        exported = new ArrayList<>();
-        try (Connection c = ds.getConnection(); Statement s = c.createStatement();
-             ResultSet rs = s.executeQuery("""
-                     SELECT f.local_day, f.local_hour, f.pageviews, f.bounce, f.engaged_ms, f.entry_path, f.entry_ads,
-                            f.source, f.device, f.browser, f.country, f.region, f.variant, f.revenue_micros,
-                            f.impressions, f.viewable_impressions, f.clicks
-                     FROM session_fact f JOIN site s ON s.id = f.site_id
-                     WHERE s.domain = 'harborview-daily.example' AND f.closed = TRUE""")) {
-            while (rs.next()) {
-                Object[] row = new Object[17];
-                for (int i = 0; i < 17; i++) {
-                    row[i] = rs.getObject(i + 1);
-                }
-                row[0] = rs.getObject(1, LocalDate.class);
-                exported.add(row);
-                if (exportedLast == null || ((LocalDate) row[0]).isAfter(exportedLast)) {
-                    exportedLast = (LocalDate) row[0];
+        try (Connection c = ds.getConnection()) {
+            c.setAutoCommit(false);   // PostgreSQL streams a result only inside a transaction, with a fetch size
+            exported = Files.createTempFile("foldline-sessions", ".csv");
+            try (Statement s = c.createStatement(); var out = Files.newBufferedWriter(exported)) {
+                s.setFetchSize(10_000);
+                try (ResultSet rs = s.executeQuery("""
+                        SELECT f.local_day, f.local_hour, f.pageviews, f.bounce, f.engaged_ms, f.entry_path, f.entry_ads,
+                               f.source, f.device, f.browser, f.country, f.region, f.variant, f.revenue_micros,
+                               f.impressions, f.viewable_impressions, f.clicks
+                        FROM session_fact f JOIN site s ON s.id = f.site_id
+                        WHERE s.domain = 'harborview-daily.example' AND f.closed = TRUE""")) {
+                    StringBuilder line = new StringBuilder();
+                    while (rs.next()) {
+                        line.setLength(0);
+                        LocalDate day = rs.getObject(1, LocalDate.class);
+                        line.append(day);
+                        for (int i = 2; i <= 17; i++) {
+                            line.append(',');
+                            Object v = rs.getObject(i);
+                            if (v instanceof String text) {
+                                line.append('"').append(text.replace("\"", "\"\"")).append('"');
+                            } else if (v != null) {
+                                line.append(v);
+                            }
+                        }
+                        out.write(line.append('\n').toString());
+                        exportedRows++;
+                        if (exportedLast == null || day.isAfter(exportedLast)) {
+                            exportedLast = day;
+                        }
+                    }
                 }
             }
+            c.commit();
         } catch (Exception e) {
             throw new IllegalStateException(e);
         }
@@ -271,29 +294,11 @@ final class MetricsBenchmark {
                           impressions INTEGER, viewable_impressions INTEGER, clicks INTEGER)""");
             }
             // loaded through a CSV file so that this class needs no DuckDB type at compile time (bench profile only)
-            Path csv = Files.createTempFile("foldline-sessions", ".csv");
-            try (var out = Files.newBufferedWriter(csv)) {
-                for (Object[] row : exported) {
-                    StringBuilder line = new StringBuilder();
-                    for (int i = 0; i < row.length; i++) {
-                        if (i > 0) {
-                            line.append(',');
-                        }
-                        Object v = row[i];
-                        if (v instanceof String text) {
-                            line.append('"').append(text.replace("\"", "\"\"")).append('"');
-                        } else if (v != null) {
-                            line.append(v);
-                        }
-                    }
-                    out.write(line.append('\n').toString());
-                }
-            }
             try (Statement s = c.createStatement()) {
-                s.execute("COPY sessions FROM '" + csv + "' (FORMAT csv, HEADER false)");
+                s.execute("COPY sessions FROM '" + exported + "' (FORMAT csv, HEADER false)");
             }
-            Files.delete(csv);
-            System.out.printf("DuckDB: %,d raw sessions of the news site loaded%n", exported.size());
+            Files.delete(exported);
+            System.out.printf("DuckDB: %,d raw sessions of the news site loaded%n", exportedRows);
             for (int warm = 0; warm < 2; warm++) {
                 for (Question q : questions) {
                     String sql = duckSql(q);
