@@ -264,6 +264,10 @@ class SiteTagBrowserTests {
                 foldline('scan');""");
         driver.findElement(By.cssSelector("[data-ad-slot=late] iframe")).click();
         driver.switchTo().defaultContent();
+        // the tag reads the focused iframe in a task after the window's blur; a reader's next navigation comes later
+        // than that, so let that task run before the route change (without this the test raced the tag)
+        ((org.openqa.selenium.JavascriptExecutor) driver).executeAsyncScript(
+                "const done = arguments[arguments.length - 1]; setTimeout(done, 100);");
 
         // a route change in a single-page app
         script("history.pushState({}, '', '/tag-test/next?utm_medium=social&session=x'); foldline('pageview');");
