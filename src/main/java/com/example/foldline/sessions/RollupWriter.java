@@ -218,8 +218,7 @@ class RollupWriter {
         // the table name is one of two constants, never input
         return Boolean.TRUE.equals(jdbc.queryForObject("SELECT EXISTS (SELECT 1 FROM " + table
                 + " WHERE site_id = ? AND cuboid = ? AND local_day BETWEEN ? AND ?)", Boolean.class, siteId, view,
-                Date.valueOf(min),
-                Date.valueOf(max)));
+                Date.valueOf(min), Date.valueOf(max)));
     }
 
     private static int[][] allMissing(int n) {
