@@ -50,6 +50,12 @@ public class DemoPublisher {
     }
 
     /** What was created. */
+    /**
+     * Sessions stored per transaction at most, give or take a day: a week of the news site at scale 101 (10 million
+     * sessions on that site) did not fit in a 512 MB heap.
+     */
+    static final int SESSIONS_PER_STORE = 50_000;
+
     public record Seeded(List<Site> sites, long sessions, long millis) {
     }
 
@@ -82,8 +88,10 @@ public class DemoPublisher {
             List<SessionInput> week = new ArrayList<>();
             for (LocalDate day = last.minusDays(days - 1L); !day.isAfter(last); day = day.plusDays(1)) {
                 week.addAll(simulator.day(day));
-                // a week per transaction: fewer commits, each one a full write of the embedded database's pages
-                if (day.getDayOfWeek() == java.time.DayOfWeek.SUNDAY || day.equals(last)) {
+                // a week per transaction: fewer commits, each one a full write of the embedded database's pages;
+                // at large scales a day per transaction, so that the heap holds at most a day of sessions
+                if (week.size() >= SESSIONS_PER_STORE || day.getDayOfWeek() == java.time.DayOfWeek.SUNDAY
+                        || day.equals(last)) {
                     total += bulk.store(site, week, quickStart ? 1 : Cuboid.LATTICE);
                     week = new ArrayList<>();
                 }

@@ -10,15 +10,19 @@ import org.springframework.stereotype.Repository;
 
 /**
  * Applies contributions to the rollup tables: add to the cell when it exists, insert it otherwise. Callers hold the
- * site's sessionizer lock, so the update-then-insert pair cannot race with another writer of the same site.
+ * site's sessionizer lock, so the update-then-insert pair cannot race with another writer of the same site. On
+ * PostgreSQL both happen in one array upsert per few thousand cells ({@link #upsertArrays}); on embedded H2, which
+ * has no round trips to save, as JDBC batches of single-row statements.
  */
 @Repository
 class RollupWriter {
 
     private final JdbcTemplate jdbc;
+    private final SqlDialect dialect;
 
-    RollupWriter(JdbcTemplate jdbc) {
+    RollupWriter(JdbcTemplate jdbc, SqlDialect dialect) {
         this.jdbc = jdbc;
+        this.dialect = dialect;
     }
 
     void apply(long siteId, Contributions c) {
@@ -39,6 +43,10 @@ class RollupWriter {
         if (rows.isEmpty()) {
             return;
         }
+        if (dialect.postgres()) {
+            upsertArrays(siteId, "rollup_session", SESSION_COLUMNS, rows, fresh ? "" : SESSION_UPSERT);
+            return;
+        }
         // cells of days the table has no rows for yet (bulk loads of history) are inserted without trying updates
         int[][] updated = fresh || !hasRows("rollup_session", FIRST_SESSION_VIEW, siteId, rows.stream().map(e -> e.getKey().day()).toList())
                 ? allMissing(rows.size()) : jdbc.batchUpdate("""
@@ -55,19 +63,43 @@ class RollupWriter {
         if (missing.isEmpty()) {
             return;
         }
-        insertRows("""
-                        INSERT INTO rollup_session (sessions, bounces, pageviews, pageviews_sq, engaged_ms, engaged_sq,
-                               revenue_micros, revenue_sq, entry_ads_sum, impressions, viewable_impressions, clicks,
-                               site_id, cuboid, local_day, local_hour, device, source, browser, variant, country, region, entry_ads,
-                               pages, entry_path)
-                        VALUES\s""", 25, missing, (ps, o, e) -> sessionRow(ps, o, siteId, e));
+        jdbc.batchUpdate(SESSION_INSERT + "(" + "?, ".repeat(24) + "?)", missing, 2000,
+                (ps, e) -> sessionRow(ps, 0, siteId, e));
     }
+
+    private static final String SESSION_INSERT = """
+            INSERT INTO rollup_session (sessions, bounces, pageviews, pageviews_sq, engaged_ms, engaged_sq,
+                   revenue_micros, revenue_sq, entry_ads_sum, impressions, viewable_impressions, clicks,
+                   site_id, cuboid, local_day, local_hour, device, source, browser, variant, country, region, entry_ads,
+                   pages, entry_path)
+            VALUES\s""";
+
+    /** PostgreSQL: one statement adds to existing cells and inserts the missing ones. */
+    private static final String SESSION_UPSERT = """
+             ON CONFLICT (site_id, cuboid, local_day, local_hour, device, source, browser, variant, country, region,
+                          entry_ads, pages, entry_path)
+            DO UPDATE SET sessions = rollup_session.sessions + EXCLUDED.sessions,
+                   bounces = rollup_session.bounces + EXCLUDED.bounces,
+                   pageviews = rollup_session.pageviews + EXCLUDED.pageviews,
+                   pageviews_sq = rollup_session.pageviews_sq + EXCLUDED.pageviews_sq,
+                   engaged_ms = rollup_session.engaged_ms + EXCLUDED.engaged_ms,
+                   engaged_sq = rollup_session.engaged_sq + EXCLUDED.engaged_sq,
+                   revenue_micros = rollup_session.revenue_micros + EXCLUDED.revenue_micros,
+                   revenue_sq = rollup_session.revenue_sq + EXCLUDED.revenue_sq,
+                   entry_ads_sum = rollup_session.entry_ads_sum + EXCLUDED.entry_ads_sum,
+                   impressions = rollup_session.impressions + EXCLUDED.impressions,
+                   viewable_impressions = rollup_session.viewable_impressions + EXCLUDED.viewable_impressions,
+                   clicks = rollup_session.clicks + EXCLUDED.clicks""";
 
     private void applyPages(long siteId, Map<Contributions.PageCell, Contributions.PageMeasures> cells,
                             boolean fresh) {
         List<Map.Entry<Contributions.PageCell, Contributions.PageMeasures>> rows = new ArrayList<>();
         cells.entrySet().stream().filter(e -> !e.getValue().isZero()).forEach(rows::add);
         if (rows.isEmpty()) {
+            return;
+        }
+        if (dialect.postgres()) {
+            upsertArrays(siteId, "rollup_page", PAGE_COLUMNS, rows, fresh ? "" : PAGE_UPSERT);
             return;
         }
         int[][] updated = fresh || !hasRows("rollup_page", FIRST_PAGE_VIEW, siteId, rows.stream().map(e -> e.getKey().day()).toList())
@@ -83,61 +115,105 @@ class RollupWriter {
         if (missing.isEmpty()) {
             return;
         }
-        insertRows("""
-                        INSERT INTO rollup_page (pageviews, exits, engaged_ms, revenue_micros, revenue_sq, impressions,
-                               viewable_impressions, clicks, site_id, cuboid, local_day, device, source, browser, variant,
-                               country, region, ads, page_position, engaged_bucket)
-                        VALUES\s""", 20, missing, (ps, o, e) -> pageRow(ps, o, siteId, e));
+        jdbc.batchUpdate(PAGE_INSERT + "(" + "?, ".repeat(19) + "?)", missing, 2000,
+                (ps, e) -> pageRow(ps, 0, siteId, e));
     }
 
-    /** Sets one row's parameters from position {@code offset + 1} on. */
-    @FunctionalInterface
-    private interface RowSetter<T> {
-        void set(java.sql.PreparedStatement ps, int offset, T row) throws java.sql.SQLException;
+    private static final String PAGE_INSERT = """
+            INSERT INTO rollup_page (pageviews, exits, engaged_ms, revenue_micros, revenue_sq, impressions,
+                   viewable_impressions, clicks, site_id, cuboid, local_day, device, source, browser, variant,
+                   country, region, ads, page_position, engaged_bucket)
+            VALUES\s""";
+
+    private static final String PAGE_UPSERT = """
+             ON CONFLICT (site_id, cuboid, local_day, device, source, browser, variant, country, region, ads,
+                          page_position, engaged_bucket)
+            DO UPDATE SET pageviews = rollup_page.pageviews + EXCLUDED.pageviews,
+                   exits = rollup_page.exits + EXCLUDED.exits,
+                   engaged_ms = rollup_page.engaged_ms + EXCLUDED.engaged_ms,
+                   revenue_micros = rollup_page.revenue_micros + EXCLUDED.revenue_micros,
+                   revenue_sq = rollup_page.revenue_sq + EXCLUDED.revenue_sq,
+                   impressions = rollup_page.impressions + EXCLUDED.impressions,
+                   viewable_impressions = rollup_page.viewable_impressions + EXCLUDED.viewable_impressions,
+                   clicks = rollup_page.clicks + EXCLUDED.clicks""";
+
+    /** One column of an array upsert: its name, the PostgreSQL array element type, and its value in a row. */
+    private record Column<T>(String name, String type, java.util.function.Function<T, Object> value) {
     }
+
+    private static <T> Column<T> col(String name, String type, java.util.function.Function<T, Object> value) {
+        return new Column<>(name, type, value);
+    }
+
+    private static final List<Column<Map.Entry<Contributions.SessionCell, Contributions.SessionMeasures>>>
+            SESSION_COLUMNS = List.of(
+            col("sessions", "int8", e -> e.getValue().sessions), col("bounces", "int8", e -> e.getValue().bounces),
+            col("pageviews", "int8", e -> e.getValue().pageviews),
+            col("pageviews_sq", "float8", e -> e.getValue().pageviewsSq),
+            col("engaged_ms", "int8", e -> e.getValue().engagedMs),
+            col("engaged_sq", "float8", e -> e.getValue().engagedSq),
+            col("revenue_micros", "int8", e -> e.getValue().revenueMicros),
+            col("revenue_sq", "float8", e -> e.getValue().revenueSq),
+            col("entry_ads_sum", "int8", e -> e.getValue().entryAdsSum),
+            col("impressions", "int8", e -> e.getValue().impressions),
+            col("viewable_impressions", "int8", e -> e.getValue().viewable),
+            col("clicks", "int8", e -> e.getValue().clicks),
+            col("cuboid", "int4", e -> e.getKey().cuboid()), col("local_day", "date", e -> Date.valueOf(e.getKey().day())),
+            col("local_hour", "int4", e -> e.getKey().hour()), col("device", "varchar", e -> e.getKey().device()),
+            col("source", "varchar", e -> e.getKey().source()), col("browser", "varchar", e -> e.getKey().browser()),
+            col("variant", "varchar", e -> e.getKey().variant()), col("country", "varchar", e -> e.getKey().country()),
+            col("region", "varchar", e -> e.getKey().region()), col("entry_ads", "int4", e -> e.getKey().entryAds()),
+            col("pages", "int4", e -> e.getKey().pages()), col("entry_path", "varchar", e -> e.getKey().entryPath()));
+
+    private static final List<Column<Map.Entry<Contributions.PageCell, Contributions.PageMeasures>>>
+            PAGE_COLUMNS = List.of(
+            col("pageviews", "int8", e -> e.getValue().pageviews), col("exits", "int8", e -> e.getValue().exits),
+            col("engaged_ms", "int8", e -> e.getValue().engagedMs),
+            col("revenue_micros", "int8", e -> e.getValue().revenueMicros),
+            col("revenue_sq", "float8", e -> e.getValue().revenueSq),
+            col("impressions", "int8", e -> e.getValue().impressions),
+            col("viewable_impressions", "int8", e -> e.getValue().viewable),
+            col("clicks", "int8", e -> e.getValue().clicks),
+            col("cuboid", "int4", e -> e.getKey().cuboid()), col("local_day", "date", e -> Date.valueOf(e.getKey().day())),
+            col("device", "varchar", e -> e.getKey().device()), col("source", "varchar", e -> e.getKey().source()),
+            col("browser", "varchar", e -> e.getKey().browser()), col("variant", "varchar", e -> e.getKey().variant()),
+            col("country", "varchar", e -> e.getKey().country()), col("region", "varchar", e -> e.getKey().region()),
+            col("ads", "int4", e -> e.getKey().ads()), col("page_position", "int4", e -> e.getKey().position()),
+            col("engaged_bucket", "int4", e -> e.getKey().engagedBucket()));
+
+    /** Cells per array upsert statement. */
+    private static final int ARRAY_ROWS = 5_000;
 
     /**
-     * Rows per INSERT statement: on PostgreSQL multi-row VALUES lists save a round trip and a statement per row
-     * (the bulk load rate doubled in the metrics benchmark); embedded H2 has no round trip and was slower with them.
+     * PostgreSQL: adds the cells with {@code INSERT … SELECT FROM unnest(one array per column) ON CONFLICT DO UPDATE},
+     * {@link #ARRAY_ROWS} cells a statement: one parse and one plan for thousands of rows, instead of an UPDATE and
+     * maybe an INSERT per cell (the sessionizer's rollup step took 10–11 s for 200,000 pageviews that way; see
+     * docs/benchmarks.md, "Sessionizer").
      */
-    private int rowsPerInsert() {
-        Integer n = rowsPerInsert;
-        if (n == null) {
-            String product = jdbc.execute((java.sql.Connection c) -> c.getMetaData().getDatabaseProductName());
-            n = "PostgreSQL".equals(product) ? 50 : 1;
-            rowsPerInsert = n;
+    private <T> void upsertArrays(long siteId, String table, List<Column<T>> columns, List<T> rows, String tail) {
+        StringBuilder names = new StringBuilder();
+        StringBuilder arrays = new StringBuilder();
+        for (Column<T> c : columns) {
+            names.append(", ").append(c.name());
+            arrays.append(arrays.isEmpty() ? "" : ", ").append("CAST(? AS ").append(c.type()).append("[])");
         }
-        return n;
-    }
-
-    private volatile Integer rowsPerInsert;
-
-    /**
-     * Inserts {@code rows} with statements of {@link #rowsPerInsert} value lists each (sent as one JDBC batch),
-     * then one statement for the remainder.
-     */
-    private <T> void insertRows(String head, int columns, List<T> rows, RowSetter<T> setter) {
-        String tuple = "(" + "?, ".repeat(columns - 1) + "?)";
-        int per = rowsPerInsert();
-        int full = rows.size() / per;
-        if (full > 0) {
-            List<List<T>> chunks = new ArrayList<>(full);
-            for (int i = 0; i < full; i++) {
-                chunks.add(rows.subList(i * per, (i + 1) * per));
-            }
-            jdbc.batchUpdate(head + String.join(", ", java.util.Collections.nCopies(per, tuple)), chunks,
-                    Math.max(40, 2000 / per), (ps, chunk) -> {
-                        for (int i = 0; i < chunk.size(); i++) {
-                            setter.set(ps, i * columns, chunk.get(i));
-                        }
-                    });
-        }
-        List<T> rest = rows.subList(full * per, rows.size());
-        if (!rest.isEmpty()) {
-            jdbc.update(head + String.join(", ", java.util.Collections.nCopies(rest.size(), tuple)), ps -> {
-                for (int i = 0; i < rest.size(); i++) {
-                    setter.set(ps, i * columns, rest.get(i));
+        // table and column names are constants of this class, never input
+        String sql = "INSERT INTO " + table + " (site_id" + names + ") SELECT CAST(? AS BIGINT), u.* FROM unnest("
+                + arrays + ") AS u" + tail;
+        for (int from = 0; from < rows.size(); from += ARRAY_ROWS) {
+            List<T> chunk = rows.subList(from, Math.min(rows.size(), from + ARRAY_ROWS));
+            jdbc.update(con -> {
+                java.sql.PreparedStatement ps = con.prepareStatement(sql);
+                ps.setLong(1, siteId);
+                for (int i = 0; i < columns.size(); i++) {
+                    Column<T> c = columns.get(i);
+                    Object[] values = new Object[chunk.size()];
+                    for (int r = 0; r < values.length; r++) {
+                        values[r] = c.value().apply(chunk.get(r));
+                    }
+                    ps.setArray(i + 2, con.createArrayOf(c.type(), values));
                 }
+                return ps;
             });
         }
     }

@@ -32,9 +32,11 @@ class SessionRepository {
     static final int LOOKUP = 1024;
 
     private final JdbcTemplate jdbc;
+    private final SqlDialect dialect;
 
-    SessionRepository(JdbcTemplate jdbc) {
+    SessionRepository(JdbcTemplate jdbc, SqlDialect dialect) {
         this.jdbc = jdbc;
+        this.dialect = dialect;
     }
 
     /** Serialises sessionizer work on one site across threads and application instances (row lock). */
@@ -117,12 +119,10 @@ class SessionRepository {
      * id) ties with the visitor index on H2 until statistics exist, and a plan made then scans every session.
      */
     List<SessionFact> tagSessions(long siteId, List<String> visitors, Instant endFrom) {
-        return jdbc.query("SELECT " + prefixed("s", SESSION_COLUMNS) + " FROM " + values(visitors.size(), "visitor", 32)
-                        + """
-                         LEFT JOIN session_fact s ON s.site_id = ? AND s.visitor = v.visitor AND s.end_ts >= ?""",
+        return jdbc.query("SELECT " + prefixed("s", SESSION_COLUMNS) + " FROM "
+                        + keyed("session_fact s", "s.visitor", visitors.size(), 32, " AND s.end_ts >= ?"),
                 ps -> {
-                    int i = bindPadded(ps, visitors);
-                    ps.setLong(i++, siteId);
+                    int i = bindKeys(ps, visitors, siteId);
                     ps.setTimestamp(i, Timestamp.from(endFrom));
                 }, (rs, n) -> rs.getString("id") == null || !"tag".equals(rs.getString("origin")) ? null : session(rs, n))
                 .stream().filter(java.util.Objects::nonNull).toList();
@@ -133,11 +133,10 @@ class SessionRepository {
      * impressions, in no particular order (the caller sorts each visitor's pages).
      */
     List<PageviewRow> visitorPageviews(long siteId, List<String> visitors, Instant from) {
-        return jdbc.query("SELECT " + prefixed("p", PAGEVIEW_COLUMNS) + " FROM " + values(visitors.size(), "visitor", 32)
-                        + " LEFT JOIN pageview p ON p.site_id = ? AND p.visitor = v.visitor AND p.ts >= ?",
+        return jdbc.query("SELECT " + prefixed("p", PAGEVIEW_COLUMNS) + " FROM "
+                        + keyed("pageview p", "p.visitor", visitors.size(), 32, " AND p.ts >= ?"),
                 ps -> {
-                    int i = bindPadded(ps, visitors);
-                    ps.setLong(i++, siteId);
+                    int i = bindKeys(ps, visitors, siteId);
                     ps.setTimestamp(i, Timestamp.from(from));
                 }, (rs, n) -> rs.getString(1) == null ? null : pageview(rs))
                 .stream().filter(java.util.Objects::nonNull).toList();
@@ -155,9 +154,8 @@ class SessionRepository {
         Map<String, long[]> ads = new HashMap<>();
         List<String> ids = rows.stream().map(PageviewRow::id).toList();
         for (List<String> chunk : chunks(ids, LOOKUP)) {
-            jdbc.query("SELECT e.pageview_id, e.engaged_ms FROM " + values(chunk.size(), "pv", 64)
-                            + " LEFT JOIN page_end e ON e.site_id = ? AND e.pageview_id = v.pv",
-                    ps -> ps.setLong(bindPadded(ps, chunk), siteId),
+            jdbc.query("SELECT e.pageview_id, e.engaged_ms FROM " + keyed("page_end e", "e.pageview_id", chunk.size(), 64, ""),
+                    ps -> bindKeys(ps, chunk, siteId),
                     rs -> {
                         if (rs.getString(1) != null) {
                             engaged.put(rs.getString(1), rs.getLong(2));
@@ -166,9 +164,9 @@ class SessionRepository {
             jdbc.query("""
                             SELECT i.pageview_id, SUM(i.revenue_micros), COUNT(*),
                                    SUM(CASE WHEN i.viewable THEN 1 ELSE 0 END), SUM(CASE WHEN i.clicked THEN 1 ELSE 0 END)
-                            FROM""" + " " + values(chunk.size(), "pv", 64) + """
-                             LEFT JOIN impression i ON i.site_id = ? AND i.pageview_id = v.pv GROUP BY i.pageview_id""",
-                    ps -> ps.setLong(bindPadded(ps, chunk), siteId),
+                            FROM""" + " " + keyed("impression i", "i.pageview_id", chunk.size(), 64, "")
+                            + " GROUP BY i.pageview_id",
+                    ps -> bindKeys(ps, chunk, siteId),
                     rs -> {
                         if (rs.getString(1) == null) {
                             return;
@@ -189,6 +187,40 @@ class SessionRepository {
                     a == null ? 0 : (int) a[2], a == null ? 0 : (int) a[3]));
         }
         return out;
+    }
+
+    /**
+     * A FROM clause for the rows of {@code table} (name and alias) of one site whose {@code column} is one of at most
+     * {@link #LOOKUP} keys and that meet {@code more} (" AND …"), in a form each database answers with one index seek
+     * per key. On H2 the keys are a {@code VALUES} list on the left of a LEFT JOIN (an outer join is never
+     * reordered), which yields a row of NULLs for a key without a match; an {@code IN} list is used only on the first
+     * column of an index there. On PostgreSQL the keys are an array, joined LATERAL so that the planner can only
+     * loop over them: a {@code VALUES} join is planned as a hash join over a scan of the whole table, and
+     * {@code = ANY(array)} is estimated to match nearly every row, so while a table that grew inside the transaction
+     * still has the statistics of an empty one the planner scanned another index per look-up (docs/benchmarks.md,
+     * "Sessionizer"). Parameters: the keys, then the site, then those of {@code more} (see {@link #bindKeys}).
+     */
+    private String keyed(String table, String column, int keys, int length, String more) {
+        String alias = table.substring(table.indexOf(' ') + 1);
+        if (dialect.postgres()) {
+            return "unnest(CAST(? AS VARCHAR(" + length + ")[])) AS v (k) CROSS JOIN LATERAL (SELECT * FROM " + table
+                    + " WHERE " + column + " = v.k AND " + alias + ".site_id = ?" + more + ") " + alias;
+        }
+        return values(keys, "k", length) + " LEFT JOIN " + table + " ON " + column + " = v.k AND " + alias
+                + ".site_id = ?" + more;
+    }
+
+    /** Binds the keys and the site of a {@link #keyed} clause; returns the next parameter index. */
+    private int bindKeys(java.sql.PreparedStatement ps, List<String> keys, long siteId) throws SQLException {
+        int i;
+        if (dialect.postgres()) {
+            ps.setArray(1, ps.getConnection().createArrayOf("varchar", keys.toArray()));
+            i = 2;
+        } else {
+            i = bindPadded(ps, keys);
+        }
+        ps.setLong(i, siteId);
+        return i + 1;
     }
 
     /** {@code (VALUES (CAST(? AS VARCHAR(n))), …) AS v (column)} with a padded number of rows (see bindPadded). */
@@ -271,50 +303,77 @@ class SessionRepository {
         return fresh;
     }
 
+    private static final String INSERT_SESSION = "INSERT INTO session_fact (" + SESSION_COLUMNS + ", rolled_up, updated_at) VALUES ";
+    private static final String SESSION_TUPLE = "(" + "?, ".repeat(28) + "TRUE, ?)";
+    /** Sessions per multi-row INSERT on PostgreSQL (29 parameters each). */
+    private static final int ROWS_PER_INSERT = 50;
+
     private int[][] insert(List<SessionFact> sessions, Instant now, String onConflict) {
         if (sessions.isEmpty()) {
             return new int[0][];
         }
         Timestamp updated = Timestamp.from(now);
-        return jdbc.batchUpdate("INSERT INTO session_fact (" + SESSION_COLUMNS + """
-                        , rolled_up, updated_at)
-                        VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, TRUE, ?)\
-                        """ + onConflict,
-                sessions, 1000, (ps, s) -> {
-                    ps.setLong(1, s.siteId());
-                    ps.setString(2, s.id());
-                    ps.setString(3, s.origin());
-                    ps.setString(4, s.visitor());
-                    ps.setString(5, s.clientSession());
-                    ps.setTimestamp(6, Timestamp.from(s.start()));
-                    ps.setTimestamp(7, Timestamp.from(s.end()));
-                    ps.setObject(8, s.localDay());
-                    ps.setInt(9, s.localHour());
-                    ps.setInt(10, s.pageviews());
-                    ps.setBoolean(11, s.bounce());
-                    ps.setLong(12, s.engagedMs());
-                    ps.setString(13, s.entryPath());
-                    ps.setInt(14, s.entryAds());
-                    if (s.laterAds() == null) {
-                        ps.setNull(15, Types.DOUBLE);
-                    } else {
-                        ps.setDouble(15, s.laterAds());
+        if (onConflict.isEmpty() && dialect.postgres()) {
+            // one statement per 50 sessions saves a round trip and an executor start per row; the per-row counts
+            // are not needed here (imports, which need them, keep single-row statements)
+            List<List<SessionFact>> chunks = chunks(sessions, ROWS_PER_INSERT);
+            List<SessionFact> last = chunks.remove(chunks.size() - 1);
+            if (!chunks.isEmpty()) {
+                jdbc.batchUpdate(INSERT_SESSION + String.join(", ", java.util.Collections.nCopies(ROWS_PER_INSERT,
+                        SESSION_TUPLE)), chunks, 40, (ps, chunk) -> {
+                    for (int i = 0; i < chunk.size(); i++) {
+                        bindSession(ps, i * 29, chunk.get(i), updated);
                     }
-                    ps.setString(16, s.source());
-                    ps.setString(17, s.device());
-                    ps.setString(18, s.browser());
-                    ps.setString(19, s.os());
-                    ps.setString(20, s.country());
-                    ps.setString(21, s.region());
-                    ps.setString(22, s.variant());
-                    ps.setLong(23, s.revenueMicros());
-                    ps.setInt(24, s.impressions());
-                    ps.setInt(25, s.viewableImpressions());
-                    ps.setInt(26, s.clicks());
-                    ps.setBoolean(27, s.closed());
-                    ps.setString(28, PageStat.encode(s.pages()));
-                    ps.setTimestamp(29, updated);
                 });
+            }
+            jdbc.update(INSERT_SESSION + String.join(", ", java.util.Collections.nCopies(last.size(), SESSION_TUPLE)),
+                    ps -> {
+                        for (int i = 0; i < last.size(); i++) {
+                            bindSession(ps, i * 29, last.get(i), updated);
+                        }
+                    });
+            return new int[0][];
+        }
+        return jdbc.batchUpdate(INSERT_SESSION + SESSION_TUPLE + onConflict, sessions, 1000,
+                (ps, s) -> bindSession(ps, 0, s, updated));
+    }
+
+    /** Sets one session's 29 parameters of {@link #SESSION_TUPLE} from position {@code o + 1} on. */
+    private static void bindSession(java.sql.PreparedStatement ps, int o, SessionFact s, Timestamp updated)
+            throws SQLException {
+        ps.setLong(o + 1, s.siteId());
+        ps.setString(o + 2, s.id());
+        ps.setString(o + 3, s.origin());
+        ps.setString(o + 4, s.visitor());
+        ps.setString(o + 5, s.clientSession());
+        ps.setTimestamp(o + 6, Timestamp.from(s.start()));
+        ps.setTimestamp(o + 7, Timestamp.from(s.end()));
+        ps.setObject(o + 8, s.localDay());
+        ps.setInt(o + 9, s.localHour());
+        ps.setInt(o + 10, s.pageviews());
+        ps.setBoolean(o + 11, s.bounce());
+        ps.setLong(o + 12, s.engagedMs());
+        ps.setString(o + 13, s.entryPath());
+        ps.setInt(o + 14, s.entryAds());
+        if (s.laterAds() == null) {
+            ps.setNull(o + 15, Types.DOUBLE);
+        } else {
+            ps.setDouble(o + 15, s.laterAds());
+        }
+        ps.setString(o + 16, s.source());
+        ps.setString(o + 17, s.device());
+        ps.setString(o + 18, s.browser());
+        ps.setString(o + 19, s.os());
+        ps.setString(o + 20, s.country());
+        ps.setString(o + 21, s.region());
+        ps.setString(o + 22, s.variant());
+        ps.setLong(o + 23, s.revenueMicros());
+        ps.setInt(o + 24, s.impressions());
+        ps.setInt(o + 25, s.viewableImpressions());
+        ps.setInt(o + 26, s.clicks());
+        ps.setBoolean(o + 27, s.closed());
+        ps.setString(o + 28, PageStat.encode(s.pages()));
+        ps.setTimestamp(o + 29, updated);
     }
 
     List<SessionFact> visitorSessions(long siteId, String visitor) {

@@ -38,4 +38,22 @@ public final class Bench {
     static boolean flag(String[] args, String name) {
         return Arrays.asList(args).contains("--" + name);
     }
+
+    /**
+     * The JDBC URL of a PostgreSQL schema emptied for a benchmark run ({@code -Dpg.url}, default the local
+     * foldline_bench database; user and password foldline): the schema is dropped and created again.
+     */
+    static String freshPostgresSchema(String schema) throws java.sql.SQLException {
+        if (!schema.matches("[a-z_][a-z0-9_]*")) {
+            throw new IllegalArgumentException("pg.schema must be a plain lower-case name");
+        }
+        String url = System.getProperty("pg.url", "jdbc:postgresql://127.0.0.1:5432/foldline_bench")
+                + (schema.equals("public") ? "" : "?currentSchema=" + schema);
+        try (java.sql.Connection c = java.sql.DriverManager.getConnection(url, "foldline", "foldline");
+             java.sql.Statement s = c.createStatement()) {
+            s.execute("DROP SCHEMA IF EXISTS " + schema + " CASCADE");
+            s.execute("CREATE SCHEMA " + schema);
+        }
+        return url;
+    }
 }

@@ -84,10 +84,11 @@ final class ImportBenchmark {
     public static void main(String[] args) throws Exception {
         long total = Bench.arg(args, "sessions", 1_000_000);
         boolean rollup = Bench.flag(args, "rollup");
+        boolean pg = Bench.flag(args, "pg");
         Instant base = Instant.now().minusSeconds(86_400).truncatedTo(java.time.temporal.ChronoUnit.SECONDS);
         Path work = Files.createTempDirectory("foldline-bench-import");
         try {
-            run(total, rollup, base, work);
+            run(total, rollup, pg, base, work);
         } finally {
             try (Stream<Path> files = Files.walk(work)) {
                 files.sorted(Comparator.reverseOrder()).forEach(p -> p.toFile().delete());
@@ -95,7 +96,7 @@ final class ImportBenchmark {
         }
     }
 
-    private static void run(long total, boolean rollup, Instant base, Path work) throws Exception {
+    private static void run(long total, boolean rollup, boolean pg, Instant base, Path work) throws Exception {
         Path allowed = Files.createDirectories(work.resolve("allowed"));
         Path file = allowed.resolve("sessions.ndjson");
         long t0 = System.nanoTime();
@@ -106,15 +107,21 @@ final class ImportBenchmark {
             }
         }
         long bytes = Files.size(file);
-        System.out.printf("import benchmark: %,d sessions, file %,d MB written in %.1f s, max heap %d MB, %d cores%n",
+        System.out.printf("import benchmark: %,d sessions, file %,d MB written in %.1f s, max heap %d MB, %d cores, %s%n",
                 total, bytes >> 20, (System.nanoTime() - t0) / 1e9, Runtime.getRuntime().maxMemory() >> 20,
-                Runtime.getRuntime().availableProcessors());
+                Runtime.getRuntime().availableProcessors(), pg ? "PostgreSQL" : "H2 files");
 
         double importRate;
         Path appDir = Files.createDirectories(work.resolve("app"));
+        // on PostgreSQL the job writes to schema public of foldline_bench and the reference to schema
+        // bench_reference: the same server, the same schema (Flyway) and indexes
+        String appUrl = pg ? Bench.freshPostgresSchema("public")
+                : "jdbc:h2:file:" + appDir.resolve("foldline") + IngestBenchmark.H2_OPTIONS;
         try (ConfigurableApplicationContext app = new SpringApplicationBuilder(FoldlineApplication.class).run(
                 "--server.port=0", "--spring.main.banner-mode=off", "--logging.level.root=WARN",
-                "--spring.datasource.url=jdbc:h2:file:" + appDir.resolve("foldline") + IngestBenchmark.H2_OPTIONS,
+                "--spring.datasource.url=" + appUrl,
+                "--spring.datasource.username=" + (pg ? "foldline" : "sa"),
+                "--spring.datasource.password=" + (pg ? "foldline" : ""),
                 "--foldline.demo.enabled=false", "--foldline.admin.initial-password=bench-password",
                 "--foldline.sessions.enabled=false", "--foldline.imports.allowed-dir=" + allowed,
                 "--foldline.imports.spool-dir=" + appDir.resolve("imports"),
@@ -170,11 +177,16 @@ final class ImportBenchmark {
         }
 
         Path refDir = Files.createDirectories(work.resolve("reference"));
-        String url = "jdbc:h2:file:" + refDir.resolve("reference") + IngestBenchmark.H2_OPTIONS;
-        Flyway.configure().dataSource(url, "sa", "").locations("classpath:db/migration/common").load().migrate();
+        String url = pg ? Bench.freshPostgresSchema("bench_reference")
+                : "jdbc:h2:file:" + refDir.resolve("reference") + IngestBenchmark.H2_OPTIONS;
+        String user = pg ? "foldline" : "sa";
+        String password = pg ? "foldline" : "";
+        Flyway.configure().dataSource(url, user, password)
+                .locations("classpath:db/migration/common", "classpath:db/migration/" + (pg ? "postgresql" : "h2"))
+                .load().migrate();
         long start = System.nanoTime();
         long rows = 0;
-        try (Connection c = DriverManager.getConnection(url, "sa", "")) {
+        try (Connection c = DriverManager.getConnection(url, user, password)) {
             c.setAutoCommit(false);
             try (PreparedStatement ps = c.prepareStatement("""
                     INSERT INTO session_fact (site_id, id, visitor, start_ts, end_ts, local_day, local_hour,

@@ -83,18 +83,7 @@ final class IngestBenchmark {
         String user = pg ? "foldline" : "sa";
         String password = pg ? "foldline" : "";
         if (pg) {
-            // the benchmark empties its schema first: -Dpg.schema names one of its own in a shared database
-            String schema = System.getProperty("pg.schema", "public");
-            if (!schema.matches("[a-z_][a-z0-9_]*")) {
-                throw new IllegalArgumentException("pg.schema must be a plain lower-case name");
-            }
-            appUrl = System.getProperty("pg.url", "jdbc:postgresql://127.0.0.1:5432/foldline_bench")
-                    + (schema.equals("public") ? "" : "?currentSchema=" + schema);
-            try (Connection c = DriverManager.getConnection(appUrl, user, password);
-                 java.sql.Statement s = c.createStatement()) {
-                s.execute("DROP SCHEMA IF EXISTS " + schema + " CASCADE");
-                s.execute("CREATE SCHEMA " + schema);
-            }
+            appUrl = Bench.freshPostgresSchema(System.getProperty("pg.schema", "public"));
         } else {
             appUrl = "jdbc:h2:file:" + Files.createTempDirectory("foldline-bench-app").resolve("foldline") + H2_OPTIONS;
         }
