@@ -19,6 +19,8 @@ export function segmentBar(onChange, today) {
       : input({ name, placeholder: { country: 'PT, ES', region: 'PT-11' }[name] ?? 'any', spellcheck: 'false',
         maxlength: 200, onchange: changed });
   });
+  const clear = h('button#segment-clear', { type: 'button', text: 'Clear reader filters',
+    onclick: () => onChange({ filters: {} }) });
   const compare = input({ type: 'checkbox', name: 'compare', onchange: () => onChange({ compare: compare.checked }) });
 
   function readFilters() {
@@ -37,7 +39,7 @@ export function segmentBar(onChange, today) {
   h('fieldset', null, h('legend', 'Dates'),
     h('div.chips', { role: 'group', 'aria-label': 'Date presets' }, presets),
     field('From', from), field('To', to), h('button', { type: 'submit', text: 'Apply' })),
-  h('fieldset', null, h('legend', 'Readers'), controls.map((c) => field(c.name[0].toUpperCase() + c.name.slice(1), c))),
+  h('fieldset', null, h('legend', 'Readers'), controls.map((c) => field(c.name[0].toUpperCase() + c.name.slice(1), c)), clear),
   h('label.check', null, compare, 'Compare with the previous period'));
 
   return {
@@ -51,6 +53,7 @@ export function segmentBar(onChange, today) {
         const v = (state.filters[c.name] ?? []).join(c.tagName === 'SELECT' ? ',' : ', ');
         c.value = v;
       }
+      clear.disabled = !Object.keys(state.filters).length;
       compare.checked = state.compare;
     },
   };

@@ -1,6 +1,6 @@
 // Entry pages: the paths readers arrive on, with their bounce, value and ads, so editors see who loses readers.
 
-import { h, field, input } from '../dom.js';
+import { h, field, input, select } from '../dom.js';
 import { heading, showScope, load, emptyMessage } from '../screen.js';
 import { COLORS } from '../charts.js';
 
@@ -39,7 +39,8 @@ export async function render(ctx) {
       const min = minInput.value.trim();
       go({ q: qInput.value.trim(), minSessions: /^[1-9]\d{0,6}$/.test(min) ? min : '' });
     } }, field('Path contains', qInput), field('At least sessions', minInput),
-    h('button', { type: 'submit', text: 'Search' })),
+    h('button', { type: 'submit', text: 'Search' }),
+    select('Rows', 'limit', ['10', '20', '50', '100'], limit, (e) => go({ limit: e.target.value }))),
     count, panel.el);
 
   const [answer] = await load(ctx, 'pages', { sort, order, q, minSessions, limit }, [panel], false) ?? [];

@@ -314,6 +314,13 @@ class BrowserUiTests {
                 .isEqualTo(today.minusDays(6).toString());
         assertThat(driver.findElement(By.cssSelector(".chip[data-preset='7d']")).getDomAttribute("aria-pressed"))
                 .isEqualTo("true");
+
+        // one button clears every reader filter and keeps the dates; with none left it is disabled
+        before = renders();
+        driver.findElement(By.id("segment-clear")).click();
+        waitRendered(before);
+        assertThat(driver.getCurrentUrl()).contains("range=7d").doesNotContain("device=");
+        assertThat(driver.findElement(By.id("segment-clear")).isEnabled()).isFalse();
     }
 
     @Test
@@ -376,6 +383,12 @@ class BrowserUiTests {
                 .map(WebElement::getText).toList();
         assertThat(paths).contains(XSS_PATH);
         screenshot("07-pages-table");
+        int shown = renders();
+        new Select(driver.findElement(By.cssSelector("select[name=limit]"))).selectByValue("10");
+        waitRendered(shown);
+        assertThat(driver.getCurrentUrl()).contains("limit=10");
+        assertThat(points("chart-pages", 0)).isEqualTo(10);
+        assertThat(driver.findElement(By.id("pages-count")).getText()).startsWith("13 entry paths match; showing 10");
 
         open(screen("geography"));
         JsonNode geo = api(gazette, "geography", range());
