@@ -19,7 +19,7 @@ export function segmentBar(onChange, today) {
       : input({ name, placeholder: { country: 'PT, ES', region: 'PT-11' }[name] ?? 'any', spellcheck: 'false',
         maxlength: 200, onchange: changed });
   });
-  const clear = h('button#segment-clear', { type: 'button', text: 'Clear reader filters',
+  const clear = h('button.tool#segment-clear', { type: 'button', text: 'Clear reader filters',
     onclick: () => onChange({ filters: {} }) });
   const compare = input({ type: 'checkbox', name: 'compare', onchange: () => onChange({ compare: compare.checked }) });
 
