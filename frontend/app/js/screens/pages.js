@@ -25,11 +25,14 @@ export async function render(ctx) {
     sessionRpm: ['Session RPM', fmt.money] }[sort];
   const panel = ctx.panel({ id: 'pages',
     title: `${view?.[0] ?? 'Entry pages'}: ${measure[0].toLowerCase()} by entry path`,
-    caption: 'One bar per path, labelled with its mean ads; bounce bars carry their 95% interval.',
+    caption: 'One bar per path, labelled with its mean ads; bounce bars carry their 95% interval.'
+      + (state.compare ? ' Grey: the same path in the previous period (none: fewer sessions than asked).' : ''),
     columns: [['path', 'Entry path'], ['sessions', 'Sessions', 'count'], ['bounceRate', 'Bounce rate', '%'],
       ['bounceLower', 'Bounce, 95% lower', '%'], ['bounceUpper', 'Bounce, 95% upper', '%'],
       ['pagesPerSession', 'Pages per session', '.2'], ['sessionRpm', 'Session RPM', 'money'],
-      ['meanEntryAds', 'Ads on the page (mean)', '.1']] });
+      ['meanEntryAds', 'Ads on the page (mean)', '.1'],
+      ...(state.compare ? [['previous', 'Previous period, ' + measure[0].toLowerCase(),
+        { sessions: 'count', bounceRate: '%', sessionRpm: 'money' }[sort]]] : [])] });
   const count = h('p.quiet#pages-count');
   ctx.main.append(
     h('div.chips', { role: 'group', 'aria-label': 'Which pages' }, VIEWS.map(([text, s, o]) => h('button.chip',
@@ -43,10 +46,13 @@ export async function render(ctx) {
     select('Rows', 'limit', ['10', '20', '50', '100'], limit, (e) => go({ limit: e.target.value }))),
     count, panel.el);
 
-  const [answer] = await load(ctx, 'pages', { sort, order, q, minSessions, limit }, [panel], false) ?? [];
+  // the previous period: the same measure of the same paths, looked up among its 500 most visited
+  const [answer, prev] = await load(ctx, 'pages', { sort, order, q, minSessions, limit }, [panel],
+    { sort: 'sessions', q, minSessions: minSessions || (sort === 'sessions' ? '' : '30'), limit: 500 }) ?? [];
   if (!answer) return;
-  showScope(ctx, scope, answer.scope);
+  showScope(ctx, scope, answer.scope, prev?.scope);
   const rows = answer.rows;
+  if (prev) for (const r of rows) r.previous = prev.rows.find((p) => p.path === r.path)?.[sort] ?? null;
   count.textContent = `${fmt.count(answer.matchingPaths)} entry paths match; showing ${fmt.count(rows.length)}.`;
   if (!rows.length) {
     return panel.empty(q ? `No entry path with enough sessions contains “${q}”.`
@@ -61,16 +67,20 @@ export async function render(ctx) {
       labels: rows.map((r) => `${short(r.path)} · ${fmt.decimal(r.meanEntryAds, 1)} ads`),
       datasets: [{ label: measure[0], data: rows.map((r) => r[sort]),
         backgroundColor: (bounce ? COLORS.vermillion : COLORS.blue) + 'bf',
-        intervals: bounce && rows.map((r) => [r.bounceLower, r.bounceUpper]) }],
+        intervals: bounce && rows.map((r) => [r.bounceLower, r.bounceUpper]) },
+      ...(prev ? [{ label: 'Previous period', data: rows.map((r) => r.previous), backgroundColor: COLORS.muted + '99' }]
+        : [])],
     },
     options: {
       indexAxis: 'y',
       scales: { x: { beginAtZero: true, suggestedMax: bounce ? Math.min(1, Math.max(...rows.map((r) => r.bounceUpper)))
         : undefined, ticks: { callback: bounce ? (v) => fmt.percent(v, 0) : measure[1] } },
       y: { ticks: { autoSkip: false } } },
-      plugins: { legend: { display: false }, tooltip: { callbacks: {
+      plugins: { legend: { display: !!prev }, tooltip: { callbacks: {
         title: (items) => rows[items[0].dataIndex].path,
-        label: ({ dataIndex: i }) => [`${fmt.count(rows[i].sessions)} sessions, bounce ${pct(rows[i].bounceRate)}`,
+        label: ({ dataIndex: i, datasetIndex: d }) => d ? 'Previous period: '
+          + (rows[i].previous === null ? 'too few sessions' : measure[1](rows[i].previous))
+          : [`${fmt.count(rows[i].sessions)} sessions, bounce ${pct(rows[i].bounceRate)}`,
           `session RPM ${fmt.money(rows[i].sessionRpm)}, ${fmt.decimal(rows[i].meanEntryAds, 1)} ads on the page`],
       } } },
     },

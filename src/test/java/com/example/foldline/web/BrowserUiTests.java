@@ -20,6 +20,7 @@ import java.time.ZoneId;
 import java.time.ZonedDateTime;
 import java.util.ArrayList;
 import java.util.Base64;
+import java.util.HashMap;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
@@ -389,6 +390,17 @@ class BrowserUiTests {
         assertThat(driver.getCurrentUrl()).contains("limit=10");
         assertThat(points("chart-pages", 0)).isEqualTo(10);
         assertThat(driver.findElement(By.id("pages-count")).getText()).startsWith("13 entry paths match; showing 10");
+        // with the previous period: grey bars of the same paths' sessions then, as the API answers for those dates
+        open(screen("pages") + "&compare=previous");
+        Map<String, Double> then = new HashMap<>();
+        api(gazette, "pages", "from=" + today.minusDays(55) + "&to=" + today.minusDays(28) + "&limit=500").get("rows")
+                .forEach(r -> then.put(r.get("path").asString(), r.get("sessions").asDouble()));
+        List<Double> expected = new ArrayList<>();
+        api(gazette, "pages", range()).get("rows").forEach(r -> expected.add(then.get(r.get("path").asString())));
+        assertThat(expected).doesNotContainNull();
+        assertThat(doubles("return Chart.getChart('chart-pages').data.datasets[1].data")).isEqualTo(expected);
+        assertThat(driver.findElement(By.id("scope")).getText()).contains("compared with");
+        screenshot("07b-pages-previous");
 
         open(screen("geography"));
         JsonNode geo = api(gazette, "geography", range());
