@@ -58,13 +58,13 @@ class RollupWriter {
                                clicks = clicks + ?
                         WHERE site_id = ? AND cuboid = ? AND local_day = ? AND local_hour = ? AND device = ? AND source = ?
                           AND browser = ? AND variant = ? AND country = ? AND region = ? AND entry_ads = ?
-                          AND pages = ? AND entry_path = ?""", rows, 2000, (ps, e) -> sessionRow(ps, 0, siteId, e));
+                          AND pages = ? AND entry_path = ?""", rows, 2000, (ps, e) -> bind(ps, SESSION_COLUMNS, SESSION_MEASURES, siteId, e));
         List<Map.Entry<Contributions.SessionCell, Contributions.SessionMeasures>> missing = missing(rows, updated);
         if (missing.isEmpty()) {
             return;
         }
         jdbc.batchUpdate(SESSION_INSERT + "(" + "?, ".repeat(24) + "?)", missing, 2000,
-                (ps, e) -> sessionRow(ps, 0, siteId, e));
+                (ps, e) -> bind(ps, SESSION_COLUMNS, SESSION_MEASURES, siteId, e));
     }
 
     private static final String SESSION_INSERT = """
@@ -110,13 +110,13 @@ class RollupWriter {
                                clicks = clicks + ?
                         WHERE site_id = ? AND cuboid = ? AND local_day = ? AND device = ? AND source = ? AND browser = ?
                           AND variant = ? AND country = ? AND region = ? AND ads = ? AND page_position = ?
-                          AND engaged_bucket = ?""", rows, 2000, (ps, e) -> pageRow(ps, 0, siteId, e));
+                          AND engaged_bucket = ?""", rows, 2000, (ps, e) -> bind(ps, PAGE_COLUMNS, PAGE_MEASURES, siteId, e));
         List<Map.Entry<Contributions.PageCell, Contributions.PageMeasures>> missing = missing(rows, updated);
         if (missing.isEmpty()) {
             return;
         }
         jdbc.batchUpdate(PAGE_INSERT + "(" + "?, ".repeat(19) + "?)", missing, 2000,
-                (ps, e) -> pageRow(ps, 0, siteId, e));
+                (ps, e) -> bind(ps, PAGE_COLUMNS, PAGE_MEASURES, siteId, e));
     }
 
     private static final String PAGE_INSERT = """
@@ -181,6 +181,10 @@ class RollupWriter {
             col("ads", "int4", e -> e.getKey().ads()), col("page_position", "int4", e -> e.getKey().position()),
             col("engaged_bucket", "int4", e -> e.getKey().engagedBucket()));
 
+    /** How many of the first columns above are measures (the rest are the key, after the site). */
+    private static final int SESSION_MEASURES = 12;
+    private static final int PAGE_MEASURES = 8;
+
     /** Cells per array upsert statement. */
     private static final int ARRAY_ROWS = 5_000;
 
@@ -218,64 +222,19 @@ class RollupWriter {
         }
     }
 
-    /** Measures, then key: the order both the UPDATE and the INSERT of rollup_session use. */
-    private static void sessionRow(java.sql.PreparedStatement ps, int o, long siteId,
-                       Map.Entry<Contributions.SessionCell, Contributions.SessionMeasures> e)
-            throws java.sql.SQLException {
-        Contributions.SessionMeasures m = e.getValue();
-        Contributions.SessionCell k = e.getKey();
-        ps.setLong(o + 1, m.sessions);
-        ps.setLong(o + 2, m.bounces);
-        ps.setLong(o + 3, m.pageviews);
-        ps.setDouble(o + 4, m.pageviewsSq);
-        ps.setLong(o + 5, m.engagedMs);
-        ps.setDouble(o + 6, m.engagedSq);
-        ps.setLong(o + 7, m.revenueMicros);
-        ps.setDouble(o + 8, m.revenueSq);
-        ps.setLong(o + 9, m.entryAdsSum);
-        ps.setLong(o + 10, m.impressions);
-        ps.setLong(o + 11, m.viewable);
-        ps.setLong(o + 12, m.clicks);
-        ps.setLong(o + 13, siteId);
-        ps.setInt(o + 14, k.cuboid());
-        ps.setDate(o + 15, Date.valueOf(k.day()));
-        ps.setInt(o + 16, k.hour());
-        ps.setString(o + 17, k.device());
-        ps.setString(o + 18, k.source());
-        ps.setString(o + 19, k.browser());
-        ps.setString(o + 20, k.variant());
-        ps.setString(o + 21, k.country());
-        ps.setString(o + 22, k.region());
-        ps.setInt(o + 23, k.entryAds());
-        ps.setInt(o + 24, k.pages());
-        ps.setString(o + 25, k.entryPath());
-    }
-
-    private static void pageRow(java.sql.PreparedStatement ps, int o, long siteId,
-                                Map.Entry<Contributions.PageCell, Contributions.PageMeasures> e)
-            throws java.sql.SQLException {
-        Contributions.PageMeasures m = e.getValue();
-        Contributions.PageCell k = e.getKey();
-        ps.setLong(o + 1, m.pageviews);
-        ps.setLong(o + 2, m.exits);
-        ps.setLong(o + 3, m.engagedMs);
-        ps.setLong(o + 4, m.revenueMicros);
-        ps.setDouble(o + 5, m.revenueSq);
-        ps.setLong(o + 6, m.impressions);
-        ps.setLong(o + 7, m.viewable);
-        ps.setLong(o + 8, m.clicks);
-        ps.setLong(o + 9, siteId);
-        ps.setInt(o + 10, k.cuboid());
-        ps.setDate(o + 11, Date.valueOf(k.day()));
-        ps.setString(o + 12, k.device());
-        ps.setString(o + 13, k.source());
-        ps.setString(o + 14, k.browser());
-        ps.setString(o + 15, k.variant());
-        ps.setString(o + 16, k.country());
-        ps.setString(o + 17, k.region());
-        ps.setInt(o + 18, k.ads());
-        ps.setInt(o + 19, k.position());
-        ps.setInt(o + 20, k.engagedBucket());
+    /**
+     * Binds one cell in the order the single-row UPDATE and INSERT statements use: its first {@code measures}
+     * columns, then the site, then the key columns.
+     */
+    private static <T> void bind(java.sql.PreparedStatement ps, List<Column<T>> columns, int measures, long siteId,
+                                 T row) throws java.sql.SQLException {
+        int p = 1;
+        for (int i = 0; i < columns.size(); i++) {
+            if (i == measures) {
+                ps.setLong(p++, siteId);
+            }
+            ps.setObject(p++, columns.get(i).value().apply(row));
+        }
     }
 
     /**
