@@ -110,12 +110,11 @@ class SessionRepository {
     }
 
     /**
-     * Built sessions of these visitors (at most {@link #LOOKUP} of them) that end at or after {@code endFrom}. The
-     * visitors are a {@code VALUES} list on the left of a LEFT JOIN, so both databases look each one up in the
-     * (site, visitor, start) index: H2 never reorders an outer join. On H2 an {@code IN} list on the index's second
-     * column is filtered in a scan of the whole site, {@code IN (subquery)} re-runs the subquery for every row, and an
-     * inner join with the list may keep a plan made while the table was empty (docs/benchmarks.md, "Sessionizer").
-     * The origin is checked here, not in SQL: with {@code origin = 'tag'} in the join the primary key (site, origin,
+     * Built sessions of these visitors (at most {@link #LOOKUP} of them) that end at or after {@code endFrom}, each
+     * visitor looked up in the (site, visitor, start) index ({@link #keyed}). On H2 an {@code IN} list on the index's
+     * second column is filtered in a scan of the whole site, {@code IN (subquery)} re-runs the subquery for every row,
+     * and an inner join with the list may keep a plan made while the table was empty (docs/benchmarks.md,
+     * "Sessionizer"). The origin is checked here, not in SQL: with {@code origin = 'tag'} in the join the primary key (site, origin,
      * id) ties with the visitor index on H2 until statistics exist, and a plan made then scans every session.
      */
     List<SessionFact> tagSessions(long siteId, List<String> visitors, Instant endFrom) {
