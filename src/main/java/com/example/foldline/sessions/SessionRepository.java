@@ -114,17 +114,13 @@ class SessionRepository {
      * visitor looked up in the (site, visitor, start) index ({@link #keyed}). On H2 an {@code IN} list on the index's
      * second column is filtered in a scan of the whole site, {@code IN (subquery)} re-runs the subquery for every row,
      * and an inner join with the list may keep a plan made while the table was empty (docs/benchmarks.md,
-     * "Sessionizer"). The origin is checked here, not in SQL: with {@code origin = 'tag'} in the join the primary key (site, origin,
-     * id) ties with the visitor index on H2 until statistics exist, and a plan made then scans every session.
+     * "Sessionizer"). The origin is checked here, not in SQL: with {@code origin = 'tag'} in the join the primary key
+     * (site, origin, id) ties with the visitor index on H2 until statistics exist, and a plan made then scans every
+     * session.
      */
     List<SessionFact> tagSessions(long siteId, List<String> visitors, Instant endFrom) {
-        return jdbc.query("SELECT " + prefixed("s", SESSION_COLUMNS) + " FROM "
-                        + keyed("session_fact s", "s.visitor", visitors.size(), 32, " AND s.end_ts >= ?"),
-                ps -> {
-                    int i = bindKeys(ps, visitors, siteId);
-                    ps.setTimestamp(i, Timestamp.from(endFrom));
-                }, (rs, n) -> rs.getString("id") == null || !"tag".equals(rs.getString("origin")) ? null : session(rs, n))
-                .stream().filter(java.util.Objects::nonNull).toList();
+        return visitorRows(prefixed("s", SESSION_COLUMNS), "session_fact s", "s.end_ts", siteId, visitors, endFrom,
+                (rs, n) -> rs.getString("id") == null || !"tag".equals(rs.getString("origin")) ? null : session(rs, n));
     }
 
     /**
@@ -132,12 +128,20 @@ class SessionRepository {
      * impressions, in no particular order (the caller sorts each visitor's pages).
      */
     List<PageviewRow> visitorPageviews(long siteId, List<String> visitors, Instant from) {
-        return jdbc.query("SELECT " + prefixed("p", PAGEVIEW_COLUMNS) + " FROM "
-                        + keyed("pageview p", "p.visitor", visitors.size(), 32, " AND p.ts >= ?"),
-                ps -> {
-                    int i = bindKeys(ps, visitors, siteId);
-                    ps.setTimestamp(i, Timestamp.from(from));
-                }, (rs, n) -> rs.getString(1) == null ? null : pageview(rs))
+        return visitorRows(prefixed("p", PAGEVIEW_COLUMNS), "pageview p", "p.ts", siteId, visitors, from,
+                (rs, n) -> rs.getString(1) == null ? null : pageview(rs));
+    }
+
+    /**
+     * Rows of {@code table} (name and alias) of these visitors whose {@code time} is at or after {@code from}, looked
+     * up by visitor ({@link #keyed}); {@code mapper} returns null for rows to drop (H2's unmatched keys among them).
+     */
+    private <T> List<T> visitorRows(String columns, String table, String time, long siteId, List<String> visitors,
+                                    Instant from, org.springframework.jdbc.core.RowMapper<T> mapper) {
+        String alias = table.substring(table.indexOf(' ') + 1);
+        return jdbc.query("SELECT " + columns + " FROM "
+                        + keyed(table, alias + ".visitor", visitors.size(), 32, " AND " + time + " >= ?"),
+                ps -> ps.setTimestamp(bindKeys(ps, visitors, siteId), Timestamp.from(from)), mapper)
                 .stream().filter(java.util.Objects::nonNull).toList();
     }
 
