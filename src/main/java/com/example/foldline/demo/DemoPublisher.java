@@ -80,8 +80,8 @@ public class DemoPublisher {
             sites.createIngestKey(site.id(), "demo tag");
             access.grantUser(site.id(), DEMO_USER, SiteRole.EDITOR);
             created.add(site);
-            if (quickStart) {
-                fill.defer(site.id(), Cuboid.LATTICE);
+            for (int lattice = 2; quickStart && lattice <= Cuboid.LATTICE; lattice++) {
+                fill.defer(site.id(), lattice);
             }
             LocalDate last = LocalDate.now(clock.withZone(ZoneId.of(spec.timezone()))).minusDays(1);
             DemoSimulator simulator = new DemoSimulator(spec, seed, scale, last);

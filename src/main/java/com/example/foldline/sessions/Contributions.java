@@ -13,7 +13,7 @@ final class Contributions {
 
     static final int MAX_PATH = 512;
 
-    /** Key of one rollup_session cell; dimensions outside the view hold "" or −1. */
+    /** Key of one rollup_session cell; dimensions outside the view hold "" or −1; a weekly twin's day is a Monday. */
     record SessionCell(int cuboid, LocalDate day, int hour, String device, String source, String browser,
                        String variant, String country, String region, int entryAds, int pages, String entryPath) {
     }
@@ -85,7 +85,7 @@ final class Contributions {
             return;
         }
         for (Cuboid c : sessionViews) {
-            SessionCell key = new SessionCell(c.id(), s.localDay(),
+            SessionCell key = new SessionCell(c.id(), c.cellDay(s.localDay()),
                     c.has(Dim.HOUR) ? s.localHour() : -1,
                     text(c, Dim.DEVICE, s.device()), text(c, Dim.SOURCE, s.source()),
                     text(c, Dim.BROWSER, s.browser()), text(c, Dim.VARIANT, s.variant()),
@@ -113,7 +113,7 @@ final class Contributions {
             int position = i == 0 ? 0 : 1;
             boolean exit = i == pages.size() - 1;
             for (Cuboid c : pageViews) {
-                PageCell key = new PageCell(c.id(), s.localDay(),
+                PageCell key = new PageCell(c.id(), c.cellDay(s.localDay()),
                         text(c, Dim.DEVICE, s.device()), text(c, Dim.SOURCE, s.source()),
                         text(c, Dim.BROWSER, s.browser()), text(c, Dim.VARIANT, s.variant()),
                         text(c, Dim.COUNTRY, s.country()), text(c, Dim.REGION, s.region()),

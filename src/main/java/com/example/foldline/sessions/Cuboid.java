@@ -1,5 +1,9 @@
 package com.example.foldline.sessions;
 
+import java.time.DayOfWeek;
+import java.time.LocalDate;
+import java.time.temporal.TemporalAdjusters;
+import java.util.ArrayList;
 import java.util.Comparator;
 import java.util.EnumSet;
 import java.util.List;
@@ -19,14 +23,25 @@ import java.util.function.Predicate;
  * is held by a view ({@code LatticeCoverageTests} checks it).
  * Views of a later lattice are filled for existing data by {@link RollupFill} before questions may read them.
  *
+ * <p>Lattice 3 adds <em>weekly twins</em>: for each large view that the entry-page and ad-density answers read, a
+ * view with the same dimensions whose cells hold whole weeks (Monday to Sunday of the site's local days, stored under
+ * the Monday). A question over a range of days reads the range's whole weeks from the twin and only the days before
+ * and after them from the daily view ({@link #split}): a 90-day question reads 18 cells per combination instead of
+ * 90, a 30-day one 6 or 12 instead of 30. Twins are never chosen by {@link #cheapest}; a question that groups by day
+ * or hour cannot use them.
+ *
  * @param size the view's nominal rows per day: the product of {@link #CARDINALITY} over its dimensions, the cost
  *             measure of Harinarayan et al. (smaller is cheaper to read)
  * @param lattice the lattice version that introduced the view (1: the views shipped with V2)
+ * @param weekOf for a weekly twin, the id of the daily view it sums by week; −1 for a daily view
  */
-public record Cuboid(int id, Set<Dim> dims, long size, int lattice) {
+public record Cuboid(int id, Set<Dim> dims, long size, int lattice, int weekOf) {
 
     /** The current lattice version; {@link RollupFill} fills views newer than a site's rollups. */
-    public static final int LATTICE = 2;
+    public static final int LATTICE = 3;
+
+    /** Daily views at least this large (nominal rows per day) that the entry-page or density answers read get a twin. */
+    static final long TWIN_SIZE = 700;
 
     /**
      * Nominal distinct values per day of each dimension on a large site, for ranking views only (the planner's
@@ -54,7 +69,7 @@ public record Cuboid(int id, Set<Dim> dims, long size, int lattice) {
     private static final Dim EB = Dim.ENGAGED_BUCKET;
 
     /** Session-level views (table rollup_session). Never renumber: ids are stored. */
-    public static final List<Cuboid> SESSION = List.of(
+    public static final List<Cuboid> SESSION = withTwins(47, List.of(
             // lattice 1
             of(0, 1), of(1, 1, D), of(2, 1, S), of(3, 1, V), of(4, 1, D, S), of(5, 1, D, S, B, V),
             of(6, 1, C), of(7, 1, C, R), of(8, 1, C, D, S),
@@ -71,16 +86,16 @@ public record Cuboid(int id, Set<Dim> dims, long size, int lattice) {
             of(37, 2, C, D, S, V), of(38, 2, C, B), of(39, 2, C, R, D, S, V), of(40, 2, C, R, B),
             // entry paths under a reader filter (the largest views: rows grow with the articles read that day)
             of(41, 2, E, S), of(42, 2, E, C), of(43, 2, E, B), of(44, 2, E, C, R), of(45, 2, E, D, S, V),
-            of(46, 2, E, C, D));
+            of(46, 2, E, C, D)));
 
     /** Page-level views (table rollup_page). */
-    public static final List<Cuboid> PAGE = List.of(
+    public static final List<Cuboid> PAGE = withTwins(17, List.of(
             of(0, 1, AP, POS), of(1, 1, AP, POS, D), of(2, 1, AP, POS, S), of(3, 1, AP, POS, V),
             of(4, 1, AP, POS, D, S, V), of(5, 1, AP, POS, C),
             of(6, 1, EB), of(7, 1, EB, D, S, V), of(8, 1, EB, C),
             of(9, 1), of(10, 1, D, S, V),
             of(11, 2, AP, POS, C, D), of(12, 2, AP, POS, B), of(13, 2, AP, POS, C, R),
-            of(14, 2, EB, C, D), of(15, 2, EB, B), of(16, 2, EB, C, R));
+            of(14, 2, EB, C, D), of(15, 2, EB, B), of(16, 2, EB, C, R)));
 
     private static Cuboid of(int id, int lattice, Dim... dims) {
         EnumSet<Dim> set = EnumSet.noneOf(Dim.class);
@@ -91,7 +106,69 @@ public record Cuboid(int id, Set<Dim> dims, long size, int lattice) {
                 size *= CARDINALITY.get(d);
             }
         }
-        return new Cuboid(id, Set.copyOf(set), size, lattice);
+        return new Cuboid(id, Set.copyOf(set), size, lattice, -1);
+    }
+
+    /**
+     * The daily views followed by the weekly twins of lattice 3, numbered from {@code firstTwin} in the order of
+     * their daily views: every view of at least {@link #TWIN_SIZE} nominal rows a day that holds the entry path, the
+     * ads on the entry page or the ads on a page, and no hour.
+     */
+    private static List<Cuboid> withTwins(int firstTwin, List<Cuboid> daily) {
+        List<Cuboid> all = new ArrayList<>(daily);
+        int id = firstTwin;
+        for (Cuboid c : daily) {
+            if (c.size >= TWIN_SIZE && !c.has(Dim.HOUR)
+                    && (c.has(Dim.ENTRY_PATH) || c.has(Dim.ENTRY_ADS) || c.has(Dim.ADS))) {
+                all.add(new Cuboid(id++, c.dims, c.size, 3, c.id));
+            }
+        }
+        return List.copyOf(all);
+    }
+
+    /** Whether this view's cells hold whole weeks (a weekly twin). */
+    public boolean weekly() {
+        return weekOf >= 0;
+    }
+
+    /** The day a cell of this view is stored under: the day itself, or for a weekly twin the Monday of its week. */
+    LocalDate cellDay(LocalDate day) {
+        return weekly() ? monday(day) : day;
+    }
+
+    static LocalDate monday(LocalDate day) {
+        return day.with(TemporalAdjusters.previousOrSame(DayOfWeek.MONDAY));
+    }
+
+    /** The weekly twin of a daily view among {@code views}, if it has one that {@code usable} accepts. */
+    static Optional<Cuboid> twin(List<Cuboid> views, Cuboid daily, Predicate<Cuboid> usable) {
+        return views.stream().filter(c -> c.weekOf == daily.id && usable.test(c)).findFirst();
+    }
+
+    /** One part of a range read from one view: local days {@code from}..{@code to} (Mondays, for a twin). */
+    public record Part(Cuboid view, LocalDate from, LocalDate to) {
+    }
+
+    /**
+     * Splits the local days {@code from}..{@code to} into the days before the first whole Monday-to-Sunday week
+     * (read from {@code daily}), the whole weeks (from {@code weekly}, when present) and the days after them; a range
+     * without a whole week, or without a twin, is one part of the daily view.
+     */
+    static List<Part> split(Cuboid daily, Optional<Cuboid> weekly, LocalDate from, LocalDate to) {
+        LocalDate firstMonday = from.with(TemporalAdjusters.nextOrSame(DayOfWeek.MONDAY));
+        LocalDate lastSunday = to.with(TemporalAdjusters.previousOrSame(DayOfWeek.SUNDAY));
+        if (weekly.isEmpty() || lastSunday.isBefore(firstMonday.plusDays(6))) {
+            return List.of(new Part(daily, from, to));
+        }
+        List<Part> parts = new ArrayList<>(3);
+        if (from.isBefore(firstMonday)) {
+            parts.add(new Part(daily, from, firstMonday.minusDays(1)));
+        }
+        parts.add(new Part(weekly.get(), firstMonday, lastSunday));
+        if (lastSunday.isBefore(to)) {
+            parts.add(new Part(daily, lastSunday.plusDays(1), to));
+        }
+        return parts;
     }
 
     /** The cheapest view among {@code views} that holds all {@code needed} dimensions, if any. */
@@ -101,7 +178,7 @@ public record Cuboid(int id, Set<Dim> dims, long size, int lattice) {
 
     /** The same among the views {@code usable} accepts (views not yet filled for a site are left out). */
     static Optional<Cuboid> cheapest(List<Cuboid> views, Set<Dim> needed, Predicate<Cuboid> usable) {
-        return views.stream().filter(c -> c.dims.containsAll(needed) && usable.test(c))
+        return views.stream().filter(c -> !c.weekly() && c.dims.containsAll(needed) && usable.test(c))
                 .min(Comparator.comparingLong(Cuboid::size).thenComparingInt(c -> c.dims.size())
                         .thenComparingInt(Cuboid::id));
     }

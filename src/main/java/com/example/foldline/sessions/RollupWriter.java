@@ -249,7 +249,8 @@ class RollupWriter {
 
     private boolean hasRows(String table, int view, long siteId, List<java.time.LocalDate> days) {
         java.time.LocalDate min = days.stream().min(java.util.Comparator.naturalOrder()).orElseThrow();
-        java.time.LocalDate max = days.stream().max(java.util.Comparator.naturalOrder()).orElseThrow();
+        // a weekly twin's cell (under its Monday) exists once any day of its week has rows: look six days further
+        java.time.LocalDate max = days.stream().max(java.util.Comparator.naturalOrder()).orElseThrow().plusDays(6);
         // the table name is one of two constants, never input
         return Boolean.TRUE.equals(jdbc.queryForObject("SELECT EXISTS (SELECT 1 FROM " + table
                 + " WHERE site_id = ? AND cuboid = ? AND local_day BETWEEN ? AND ?)", Boolean.class, siteId, view,

@@ -14,6 +14,7 @@ import java.util.Map;
 import java.util.Optional;
 import java.util.Set;
 import java.util.StringJoiner;
+import java.util.function.Predicate;
 
 import org.springframework.jdbc.core.namedparam.MapSqlParameterSource;
 import org.springframework.jdbc.core.namedparam.NamedParameterJdbcTemplate;
@@ -27,10 +28,15 @@ import org.springframework.stereotype.Service;
 @Service
 public class Rollups {
 
-    /** Where an answer was read from, reported in answers so slow combinations are visible. */
-    public record Plan(String table, Integer cuboid) {
+    /**
+     * Where an answer was read from, reported in answers so slow combinations are visible.
+     *
+     * @param weekly the weekly twin the range's whole weeks were read from, or null
+     */
+    public record Plan(String table, Integer cuboid, Integer weekly) {
         public String describe() {
-            return cuboid == null ? table + " (no rollup view holds this combination)" : table + " view " + cuboid;
+            return cuboid == null ? table + " (no rollup view holds this combination)"
+                    : table + " view " + cuboid + (weekly == null ? "" : ", whole weeks from view " + weekly);
         }
     }
 
@@ -79,67 +85,127 @@ public class Rollups {
     /** Session measures grouped by {@code groupBy} (and by day when {@code byDay}). */
     public SessionAnswer sessions(long siteId, SegmentFilter filter, List<Dim> groupBy, boolean byDay) {
         Set<Dim> needed = needed(filter, groupBy);
-        Optional<Cuboid> view = Cuboid.cheapest(Cuboid.SESSION, needed, fills.usable(siteId, filter.from()));
+        Predicate<Cuboid> usable = fills.usable(siteId, filter.from());
+        Optional<Cuboid> view = Cuboid.cheapest(Cuboid.SESSION, needed, usable);
+        if (view.isEmpty()) {
+            return sessionsFromFacts(siteId, filter, groupBy, byDay);
+        }
+        List<Cuboid.Part> parts = parts(Cuboid.SESSION, view.get(), usable, filter, byDay);
+        List<List<Group<SessionTotals>>> read = new ArrayList<>(parts.size());
+        for (Cuboid.Part part : parts) {
+            Read q = read(siteId, part, groupBy, byDay, filter);
+            read.add(jdbc.query("SELECT " + q.select() + SESSION_SUMS + " FROM rollup_session" + q.where(),
+                    q.params(), (rs, i) -> new Group<>(byDay ? rs.getObject("g0", LocalDate.class) : null,
+                            key(rs, groupBy, byDay ? 1 : 0), sessionTotals(rs))));
+        }
+        return new SessionAnswer(plan("rollup_session", parts),
+                merge(read, SessionTotals::plus, groupBy));
+    }
+
+    /** Fallback: closed sessions aggregated directly (no view holds the combination). */
+    private SessionAnswer sessionsFromFacts(long siteId, SegmentFilter filter, List<Dim> groupBy, boolean byDay) {
         MapSqlParameterSource params = new MapSqlParameterSource("site", siteId)
                 .addValue("from", Date.valueOf(filter.from())).addValue("to", Date.valueOf(filter.to()));
-        StringBuilder sql = new StringBuilder("SELECT ");
-        String dayColumn = "local_day";
         List<String> groupExprs = new ArrayList<>();
         if (byDay) {
-            groupExprs.add(dayColumn);
+            groupExprs.add("local_day");
         }
-        for (Dim d : groupBy) {
-            groupExprs.add(view.isPresent() ? d.column() : factExpression(d));
-        }
+        groupBy.forEach(d -> groupExprs.add(factExpression(d)));
+        StringBuilder sql = new StringBuilder("SELECT ");
         for (int i = 0; i < groupExprs.size(); i++) {
             sql.append(groupExprs.get(i)).append(" AS g").append(i).append(", ");
         }
-        Plan plan;
-        if (view.isPresent()) {
-            sql.append(SESSION_SUMS).append(" FROM rollup_session WHERE site_id = :site AND cuboid = :cuboid")
-                    .append(" AND local_day BETWEEN :from AND :to");
-            params.addValue("cuboid", view.get().id());
-            plan = new Plan("rollup_session", view.get().id());
-        } else {
-            sql.append(FACT_SUMS).append(" FROM session_fact WHERE site_id = :site AND closed = TRUE")
-                    .append(" AND local_day BETWEEN :from AND :to");
-            plan = new Plan("session_fact", null);
-        }
-        appendFilter(sql, params, filter, view.isPresent());
+        sql.append(FACT_SUMS).append(" FROM session_fact WHERE site_id = :site AND closed = TRUE")
+                .append(" AND local_day BETWEEN :from AND :to");
+        appendFilter(sql, params, filter, false);
         appendGroupOrder(sql, groupExprs);
         List<Group<SessionTotals>> groups = jdbc.query(sql.toString(), params,
                 (rs, i) -> new Group<>(byDay ? rs.getObject("g0", LocalDate.class) : null,
                         key(rs, groupBy, byDay ? 1 : 0), sessionTotals(rs)));
-        return new SessionAnswer(plan, groups);
+        return new SessionAnswer(new Plan("session_fact", null, null), groups);
     }
 
     /** Page measures grouped by {@code groupBy} (and by day when {@code byDay}). */
     public PageAnswer pages(long siteId, SegmentFilter filter, List<Dim> groupBy, boolean byDay) {
         Set<Dim> needed = needed(filter, groupBy);
-        Optional<Cuboid> view = Cuboid.cheapest(Cuboid.PAGE, needed, fills.usable(siteId, filter.from()));
+        Predicate<Cuboid> usable = fills.usable(siteId, filter.from());
+        Optional<Cuboid> view = Cuboid.cheapest(Cuboid.PAGE, needed, usable);
         if (view.isEmpty()) {
             return pagesFromSessions(siteId, filter, groupBy, byDay);
         }
-        MapSqlParameterSource params = new MapSqlParameterSource("site", siteId)
-                .addValue("from", Date.valueOf(filter.from())).addValue("to", Date.valueOf(filter.to()))
-                .addValue("cuboid", view.get().id());
+        List<Cuboid.Part> parts = parts(Cuboid.PAGE, view.get(), usable, filter, byDay);
+        List<List<Group<PageTotals>>> read = new ArrayList<>(parts.size());
+        for (Cuboid.Part part : parts) {
+            Read q = read(siteId, part, groupBy, byDay, filter);
+            read.add(jdbc.query("SELECT " + q.select() + PAGE_SUMS + " FROM rollup_page" + q.where(), q.params(),
+                    (rs, i) -> new Group<>(byDay ? rs.getObject("g0", LocalDate.class) : null,
+                            key(rs, groupBy, byDay ? 1 : 0), pageTotals(rs))));
+        }
+        return new PageAnswer(plan("rollup_page", parts), merge(read, PageTotals::plus, groupBy));
+    }
+
+    /** The parts a question reads: whole weeks from the view's weekly twin where it has one and may use it. */
+    private static List<Cuboid.Part> parts(List<Cuboid> views, Cuboid daily, Predicate<Cuboid> usable,
+                                           SegmentFilter filter, boolean byDay) {
+        Optional<Cuboid> twin = byDay ? Optional.empty() : Cuboid.twin(views, daily, usable);
+        return Cuboid.split(daily, twin, filter.from(), filter.to());
+    }
+
+    private static Plan plan(String table, List<Cuboid.Part> parts) {
+        Integer daily = null;
+        Integer weekly = null;
+        for (Cuboid.Part p : parts) {
+            if (p.view().weekly()) {
+                weekly = p.view().id();
+                daily = p.view().weekOf();
+            } else {
+                daily = p.view().id();
+            }
+        }
+        return new Plan(table, daily, weekly);
+    }
+
+    /** One grouped read of one part: its select list of groups, and its WHERE clause with the values bound. */
+    private record Read(String select, String where, MapSqlParameterSource params) {
+    }
+
+    private static Read read(long siteId, Cuboid.Part part, List<Dim> groupBy, boolean byDay, SegmentFilter filter) {
+        MapSqlParameterSource params = new MapSqlParameterSource("site", siteId).addValue("cuboid", part.view().id())
+                .addValue("from", Date.valueOf(part.from())).addValue("to", Date.valueOf(part.to()));
         List<String> groupExprs = new ArrayList<>();
         if (byDay) {
             groupExprs.add("local_day");
         }
         groupBy.forEach(d -> groupExprs.add(d.column()));
-        StringBuilder sql = new StringBuilder("SELECT ");
+        StringBuilder select = new StringBuilder();
         for (int i = 0; i < groupExprs.size(); i++) {
-            sql.append(groupExprs.get(i)).append(" AS g").append(i).append(", ");
+            select.append(groupExprs.get(i)).append(" AS g").append(i).append(", ");
         }
-        sql.append(PAGE_SUMS).append(" FROM rollup_page WHERE site_id = :site AND cuboid = :cuboid")
-                .append(" AND local_day BETWEEN :from AND :to");
-        appendFilter(sql, params, filter, true);
-        appendGroupOrder(sql, groupExprs);
-        List<Group<PageTotals>> groups = jdbc.query(sql.toString(), params,
-                (rs, i) -> new Group<>(byDay ? rs.getObject("g0", LocalDate.class) : null,
-                        key(rs, groupBy, byDay ? 1 : 0), pageTotals(rs)));
-        return new PageAnswer(new Plan("rollup_page", view.get().id()), groups);
+        StringBuilder where = new StringBuilder(
+                " WHERE site_id = :site AND cuboid = :cuboid AND local_day BETWEEN :from AND :to");
+        appendFilter(where, params, filter, true);
+        appendGroupOrder(where, groupExprs);
+        return new Read(select.toString(), where.toString(), params);
+    }
+
+    /**
+     * Adds up groups with the same key read from several parts of a range, in the order of their keys (as one
+     * grouped query would have returned them). One part is returned as read.
+     */
+    private static <T> List<Group<T>> merge(List<List<Group<T>>> parts, java.util.function.BinaryOperator<T> plus,
+                                            List<Dim> groupBy) {
+        if (parts.size() == 1) {
+            return parts.get(0);
+        }
+        Map<Map<Dim, Object>, Group<T>> sums = new LinkedHashMap<>();
+        for (List<Group<T>> part : parts) {
+            for (Group<T> g : part) {
+                sums.merge(g.key(), g, (a, b) -> new Group<>(a.day(), a.key(), plus.apply(a.totals(), b.totals())));
+            }
+        }
+        List<Group<T>> merged = new ArrayList<>(sums.values());
+        merged.sort((a, b) -> compareKeys(a, b, groupBy));
+        return merged;
     }
 
     /** Fallback: reads closed sessions with their page detail and aggregates pages in memory. */
@@ -196,7 +262,7 @@ public class Rollups {
             groups.add(new Group<>((LocalDate) k.get(0), key, v));
         });
         groups.sort((a, b) -> compareKeys(a, b, groupBy));
-        return new PageAnswer(new Plan("session_fact", null), groups);
+        return new PageAnswer(new Plan("session_fact", null, null), groups);
     }
 
     private static int compareKeys(Group<?> a, Group<?> b, List<Dim> groupBy) {

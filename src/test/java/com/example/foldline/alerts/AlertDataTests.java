@@ -44,7 +44,7 @@ class AlertDataTests {
                 groups.add(new Group<>(d, Map.of(Dim.HOUR, 12),
                         new SessionTotals(sessions, 1, sessions, 0, 0, 0, 0, 0, 0, 0, 0, 0)));
             }
-            return new Rollups.SessionAnswer(new Rollups.Plan("rollup_session", 20), groups);
+            return new Rollups.SessionAnswer(new Rollups.Plan("rollup_session", 20, null), groups);
         });
         AlertProperties properties = new AlertProperties(false, Duration.ofMinutes(1), Duration.ofSeconds(10),
                 Duration.ofMinutes(15), Duration.ofDays(2), ttl, URI.create("http://localhost:8080"),

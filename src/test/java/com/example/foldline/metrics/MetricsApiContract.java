@@ -327,18 +327,74 @@ abstract class MetricsApiContract {
     }
 
     @Test
+    void rangesWithWholeWeeksReadThemFromTheWeeklyViewsAndAgreeWithTheirDays() {
+        // lattice 3 (docs/architecture.md): sessions on both sides of week boundaries, the DST change in Lisbon
+        // (2026-10-25) inside a week; Wednesday 2026-10-14 to Wednesday 2026-11-04 holds two whole weeks
+        String[] days = {"2026-10-14", "2026-10-18", "2026-10-19", "2026-10-25", "2026-10-26", "2026-11-01",
+                "2026-11-02", "2026-11-04"};
+        Events more = new Events();
+        for (int i = 0; i < days.length; i++) {
+            more.pageview("w" + i, days[i] + "T12:00:00Z", "W" + i, i % 2 == 0 ? "/x" : "/w", 1 + i % 3,
+                    i % 3 == 0 ? "phone" : "desktop", "search", "PT");
+        }
+        post(more);
+        sessionizer.run(site.id());
+        for (String filter : List.of("", "&device=phone&source=search", "&country=PT")) {
+            JsonNode pages = get("pages", "2026-10-14", "2026-11-04", filter + "&limit=500");
+            JsonNode density = get("density", "2026-10-14", "2026-11-04", filter);
+            if (filter.isEmpty()) {
+                // by hand: /x from A, B and four new sessions; /w four new ones; /z C's two sessions
+                assertThat(pages.get("rows")).extracting(r -> r.get("path").stringValue() + "=" + r.get("sessions")
+                        .asLong()).containsExactly("/x=6", "/w=4", "/z=2");
+                assertThat(pages.get("scope").get("answeredFrom").stringValue())
+                        .isEqualTo("rollup_session view 18, whole weeks from view " + twinOf(18));
+            } else {
+                assertThat(pages.get("scope").get("answeredFrom").stringValue()).contains("whole weeks from view");
+            }
+            if (filter.contains("device")) { // entry ads x device x source x variant (view 13) has a twin
+                assertThat(density.get("scope").get("answeredFrom").stringValue())
+                        .isEqualTo("rollup_session view 13, whole weeks from view " + twinOf(13));
+            }
+            // the same questions asked day by day (a day never reads a weekly view), added up
+            Map<String, Long> pathsByDay = new java.util.TreeMap<>();
+            Map<Integer, Long> adsByDay = new java.util.TreeMap<>();
+            for (java.time.LocalDate d = java.time.LocalDate.parse("2026-10-14");
+                 !d.isAfter(java.time.LocalDate.parse("2026-11-04")); d = d.plusDays(1)) {
+                JsonNode day = get("pages", d.toString(), d.toString(), filter + "&limit=500");
+                assertThat(day.get("scope").get("answeredFrom").stringValue()).doesNotContain("weeks");
+                day.get("rows").forEach(r -> pathsByDay.merge(r.get("path").stringValue(), r.get("sessions").asLong(),
+                        Long::sum));
+                get("density", d.toString(), d.toString(), filter).get("points").forEach(p -> adsByDay.merge(
+                        p.get("entryAds").asInt(), p.get("sessions").asLong(), Long::sum));
+            }
+            Map<String, Long> paths = new java.util.TreeMap<>();
+            pages.get("rows").forEach(r -> paths.put(r.get("path").stringValue(), r.get("sessions").asLong()));
+            Map<Integer, Long> ads = new java.util.TreeMap<>();
+            density.get("points").forEach(p -> ads.merge(p.get("entryAds").asInt(), p.get("sessions").asLong(),
+                    Long::sum));
+            assertThat(paths).as(filter).isNotEmpty().isEqualTo(pathsByDay);
+            assertThat(ads).as(filter).isEqualTo(adsByDay);
+            adsByDay.values().removeIf(n -> n == 0);
+            assertThat(adsByDay).as(filter).isNotEmpty();
+        }
+        assertRollupsEqualSessions();
+    }
+
+    private static int twinOf(int daily) {
+        return Cuboid.SESSION.stream().filter(c -> c.weekOf() == daily).findFirst().orElseThrow().id();
+    }
+
+    @Test
     void rollupsOfTheOldLatticeGetTheNewViewsFilled() {
-        // a database whose rollups were built before lattice 2: no rows in the new views, marked by migration V8
+        // a database whose rollups were built before lattice 2: no rows in the new views, marked by migrations V8, V9
         simulateOldLattice();
         JsonNode before = get("pages", "&source=search");
         assertThat(before.get("scope").get("answeredFrom").stringValue()).contains("session_fact");
-        assertThat(rollupFill.fillPending()).singleElement().satisfies(r -> {
-            assertThat(r.siteId()).isEqualTo(site.id());
-            assertThat(r.sessions()).isEqualTo(4);
-            assertThat(r.completeFrom()).isNull();
-        });
+        // lattice 2 a day at a time, lattice 3 (weekly twins) a week at a time: each reads the 4 sessions once
+        assertThat(rollupFill.fillPending()).extracting(r -> r.siteId() + "/" + r.lattice() + "/" + r.sessions() + "/"
+                + r.completeFrom()).containsExactly(site.id() + "/2/4/null", site.id() + "/3/4/null");
         assertThat(jdbc.sql("SELECT state FROM rollup_fill WHERE site_id = :s").param("s", site.id())
-                .query(String.class).single()).isEqualTo("done");
+                .query(String.class).list()).containsExactly("done", "done");
         JsonNode after = get("pages", "&source=search");
         assertThat(after.get("scope").get("answeredFrom").stringValue()).isEqualTo("rollup_session view 41");
         assertThat(after.get("rows").toString()).isEqualTo(before.get("rows").toString());
@@ -397,7 +453,7 @@ abstract class MetricsApiContract {
                 .isEqualTo(5);
     }
 
-    /** Removes the rows of the lattice-2 views and marks the site as migration V8 does for existing rollups. */
+    /** Removes the rows of the views after lattice 1 and marks the site as migrations V8 and V9 do for existing rollups. */
     private void simulateOldLattice() {
         for (Cuboid c : Cuboid.SESSION) {
             if (c.lattice() > 1) {
@@ -411,7 +467,9 @@ abstract class MetricsApiContract {
                         .param("c", c.id()).update();
             }
         }
-        rollupFill.defer(site.id(), 2);
+        for (int lattice = 2; lattice <= Cuboid.LATTICE; lattice++) {
+            rollupFill.defer(site.id(), lattice);
+        }
     }
 
     @Test
@@ -460,10 +518,11 @@ abstract class MetricsApiContract {
                     FROM rollup_session WHERE site_id = :s AND cuboid = """ + c.id() + " GROUP BY "
                     + String.join(", ", rollup) + " HAVING SUM(sessions) <> 0"))
                     .as("session view %d %s", c.id(), c.dims())
-                    .containsExactlyInAnyOrderElementsOf(cells("SELECT " + String.join(", ", fact) + """
+                    .containsExactlyInAnyOrderElementsOf(byWeekIf(c.weekly(), fact.size(), cells("SELECT "
+                            + String.join(", ", fact) + """
                             , COUNT(*), SUM(CASE WHEN bounce THEN 1 ELSE 0 END), SUM(pageviews), SUM(revenue_micros),
                             SUM(entry_ads) FROM session_fact WHERE site_id = :s AND closed = TRUE GROUP BY """
-                            + " " + String.join(", ", fact)));
+                            + " " + String.join(", ", fact))));
         }
         for (Cuboid c : Cuboid.PAGE) {
             List<String> rollup = new java.util.ArrayList<>(List.of("local_day"));
@@ -478,10 +537,51 @@ abstract class MetricsApiContract {
                     + " WHERE site_id = :s AND cuboid = " + c.id() + " GROUP BY " + String.join(", ", rollup)
                     + " HAVING SUM(pageviews) <> 0"))
                     .as("page view %d %s", c.id(), c.dims())
-                    .containsExactlyInAnyOrderElementsOf(cells("SELECT " + String.join(", ", fact)
+                    .containsExactlyInAnyOrderElementsOf(byWeekIf(c.weekly(), fact.size(), cells("SELECT "
+                            + String.join(", ", fact)
                             + ", SUM(pageviews), COUNT(*) FROM session_fact WHERE site_id = :s AND closed = TRUE"
-                            + " GROUP BY " + String.join(", ", fact)));
+                            + " GROUP BY " + String.join(", ", fact))));
         }
+    }
+
+    /**
+     * For a weekly twin, the rows of {@link #cells} (first column a local day, then {@code keys} − 1 more key
+     * columns, then sums) added up by the Monday of the day's week; otherwise the rows as they are.
+     */
+    private static List<String> byWeekIf(boolean weekly, int keys, List<String> rows) {
+        if (!weekly) {
+            return rows;
+        }
+        Map<String, long[]> sums = new java.util.TreeMap<>();
+        for (String row : rows) {
+            String[] f = row.split("\\|", -1);
+            java.time.LocalDate monday = java.time.LocalDate.parse(f[0])
+                    .with(java.time.temporal.TemporalAdjusters.previousOrSame(java.time.DayOfWeek.MONDAY));
+            StringBuilder key = new StringBuilder(monday.toString()).append('|');
+            for (int k = 1; k < keys; k++) {
+                key.append(f[k]).append('|');
+            }
+            long[] add = new long[f.length - 1 - keys];
+            for (int k = 0; k < add.length; k++) {
+                add[k] = Long.parseLong(f[keys + k]);
+            }
+            sums.merge(key.toString(), add, (a, b) -> {
+                long[] t = a.clone();
+                for (int k = 0; k < t.length; k++) {
+                    t[k] += b[k];
+                }
+                return t;
+            });
+        }
+        List<String> out = new java.util.ArrayList<>();
+        sums.forEach((k, v) -> {
+            StringBuilder row = new StringBuilder(k);
+            for (long x : v) {
+                row.append(x).append('|');
+            }
+            out.add(row.toString());
+        });
+        return out;
     }
 
     /** Rows of a grouped query as text, numbers as longs (the two databases return different number types). */

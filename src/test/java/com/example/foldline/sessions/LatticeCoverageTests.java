@@ -2,12 +2,14 @@ package com.example.foldline.sessions;
 
 import static org.assertj.core.api.Assertions.assertThat;
 
+import java.time.LocalDate;
 import java.util.ArrayList;
 import java.util.EnumSet;
 import java.util.HashSet;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
+import java.util.Optional;
 import java.util.Set;
 
 import org.junit.jupiter.api.Test;
@@ -121,6 +123,59 @@ class LatticeCoverageTests {
         assertThat(Cuboid.cheapest(Cuboid.SESSION, Set.of(D, S)).orElseThrow().id()).isEqualTo(4);
         assertThat(Cuboid.cheapest(Cuboid.SESSION, Set.of(Dim.ENTRY_PATH, D, S)).orElseThrow().dims())
                 .containsExactlyInAnyOrder(Dim.ENTRY_PATH, D, S, V);
+    }
+
+    @Test
+    void largeViewsOfTheEntryPageAndDensityAnswersHaveWeeklyTwinsThatAreNeverChosenAlone() {
+        // lattice 3: twins carry their daily view's dimensions and come after every daily view
+        Cuboid pagesDaily = Cuboid.SESSION.stream().filter(c -> c.id() == 45).findFirst().orElseThrow();
+        Cuboid twin = Cuboid.twin(Cuboid.SESSION, pagesDaily, c -> true).orElseThrow();
+        assertThat(twin.weekly()).isTrue();
+        assertThat(twin.lattice()).isEqualTo(3);
+        assertThat(twin.dims()).isEqualTo(pagesDaily.dims());
+        assertThat(twin.id()).isGreaterThan(46);
+        assertThat(Cuboid.SESSION.stream().filter(Cuboid::weekly).map(Cuboid::weekOf))
+                .contains(18, 19, 41, 42, 43, 44, 45, 46, 13, 27, 29)
+                .doesNotContain(0, 1, 9, 10, 20, 33); // small views and hourly views have none
+        assertThat(Cuboid.PAGE.stream().filter(Cuboid::weekly).map(Cuboid::weekOf)).contains(4, 5, 11, 13)
+                .doesNotContain(0, 6, 9);
+        assertThat(Cuboid.twin(Cuboid.SESSION, Cuboid.SESSION.get(0), c -> true)).isEmpty();
+        for (Cuboid c : Cuboid.SESSION) {
+            assertThat(Cuboid.cheapest(Cuboid.SESSION, c.dims()).orElseThrow().weekly()).isFalse();
+        }
+        // a twin stores each cell under the Monday of its week (ISO 8601 weeks)
+        assertThat(twin.cellDay(LocalDate.parse("2026-11-01"))).isEqualTo(LocalDate.parse("2026-10-26"));
+        assertThat(twin.cellDay(LocalDate.parse("2026-10-26"))).isEqualTo(LocalDate.parse("2026-10-26"));
+        assertThat(pagesDaily.cellDay(LocalDate.parse("2026-11-01"))).isEqualTo(LocalDate.parse("2026-11-01"));
+    }
+
+    @Test
+    void aRangeIsSplitIntoItsWholeWeeksAndTheDaysAroundThem() {
+        Cuboid daily = Cuboid.SESSION.stream().filter(c -> c.id() == 18).findFirst().orElseThrow();
+        Optional<Cuboid> twin = Cuboid.twin(Cuboid.SESSION, daily, c -> true);
+        // Wednesday 2026-10-14 to Wednesday 2026-11-04: Wed-Sun, two whole weeks, Mon-Wed
+        assertThat(Cuboid.split(daily, twin, LocalDate.parse("2026-10-14"), LocalDate.parse("2026-11-04")))
+                .containsExactly(new Cuboid.Part(daily, LocalDate.parse("2026-10-14"), LocalDate.parse("2026-10-18")),
+                        new Cuboid.Part(twin.get(), LocalDate.parse("2026-10-19"), LocalDate.parse("2026-11-01")),
+                        new Cuboid.Part(daily, LocalDate.parse("2026-11-02"), LocalDate.parse("2026-11-04")));
+        // exactly one week: the twin alone
+        assertThat(Cuboid.split(daily, twin, LocalDate.parse("2026-10-19"), LocalDate.parse("2026-10-25")))
+                .containsExactly(new Cuboid.Part(twin.get(), LocalDate.parse("2026-10-19"),
+                        LocalDate.parse("2026-10-25")));
+        // no whole week (Tuesday to the next Monday), or no twin: the daily view alone
+        assertThat(Cuboid.split(daily, twin, LocalDate.parse("2026-10-20"), LocalDate.parse("2026-10-26")))
+                .containsExactly(new Cuboid.Part(daily, LocalDate.parse("2026-10-20"), LocalDate.parse("2026-10-26")));
+        assertThat(Cuboid.split(daily, Optional.empty(), LocalDate.parse("2026-10-14"), LocalDate.parse("2026-11-04")))
+                .containsExactly(new Cuboid.Part(daily, LocalDate.parse("2026-10-14"), LocalDate.parse("2026-11-04")));
+        // 90 days always read 18 cells per combination: 12 weeks and 6 days
+        for (LocalDate from = LocalDate.parse("2026-09-01"); from.isBefore(LocalDate.parse("2026-09-08"));
+             from = from.plusDays(1)) {
+            List<Cuboid.Part> parts = Cuboid.split(daily, twin, from, from.plusDays(89));
+            long cells = parts.stream().mapToLong(p -> p.view().weekly()
+                    ? (p.to().toEpochDay() - p.from().toEpochDay() + 1) / 7
+                    : p.to().toEpochDay() - p.from().toEpochDay() + 1).sum();
+            assertThat(cells).as("from %s", from).isEqualTo(18);
+        }
     }
 
     private static Cuboid view(String answer, Set<Dim> axis, Set<Dim> filter) {

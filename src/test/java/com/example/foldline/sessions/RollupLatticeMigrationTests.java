@@ -15,13 +15,13 @@ import org.junit.jupiter.api.Test;
 
 /**
  * Issue #3: a database migrated before lattice 2 (V6, with rollups) gets its sites marked for filling the new views
- * by V8; a site without rollups is not marked. The fill itself is tested on H2 and PostgreSQL in
- * MetricsApiContract (rollupsOfTheOldLatticeGetTheNewViewsFilled).
+ * by V8, and for filling the weekly twins of lattice 3 by V9; a site without rollups is not marked. The fill itself
+ * is tested on H2 and PostgreSQL in MetricsApiContract (rollupsOfTheOldLatticeGetTheNewViewsFilled).
  */
 class RollupLatticeMigrationTests {
 
     @Test
-    void v8MarksSitesThatHaveRollups() throws Exception {
+    void v8AndV9MarkSitesThatHaveRollups() throws Exception {
         String url = "jdbc:h2:mem:" + UUID.randomUUID() + ";MODE=PostgreSQL;DATABASE_TO_LOWER=TRUE;"
                 + "CASE_INSENSITIVE_IDENTIFIERS=TRUE;DEFAULT_NULL_ORDERING=HIGH;NON_KEYWORDS=VALUE,KEY;DB_CLOSE_DELAY=-1";
         try (Connection keep = DriverManager.getConnection(url, "sa", "")) {
@@ -41,12 +41,12 @@ class RollupLatticeMigrationTests {
             Flyway.configure().dataSource(url, "sa", "").locations("classpath:db/migration/common").load().migrate();
             List<String> marked = new ArrayList<>();
             try (Statement s = keep.createStatement();
-                 ResultSet rs = s.executeQuery("SELECT site_id, lattice, state FROM rollup_fill ORDER BY site_id")) {
+                 ResultSet rs = s.executeQuery("SELECT site_id, lattice, state FROM rollup_fill ORDER BY site_id, lattice")) {
                 while (rs.next()) {
                     marked.add(rs.getLong(1) + "/" + rs.getInt(2) + "/" + rs.getString(3));
                 }
             }
-            assertThat(marked).containsExactly("1/2/pending");
+            assertThat(marked).containsExactly("1/2/pending", "1/3/pending");
         }
     }
 }

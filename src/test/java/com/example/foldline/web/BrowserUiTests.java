@@ -608,8 +608,9 @@ class BrowserUiTests {
         // sign out, and in as a user with no role on the site
         open("/?screen=health&site=" + gazette.id());
         driver.findElement(By.id("sign-out")).click();
-        waitFor("signed out", d -> d.getCurrentUrl().contains("/login.html?logout"));
-        assertThat(driver.findElement(By.id("login-message")).getText()).isEqualTo("You have signed out.");
+        // the sign-in page may still be replacing the app's page when its address shows: wait for its message
+        waitFor("signed out", d -> d.getCurrentUrl().contains("/login.html?logout")
+                && "You have signed out.".equals(d.findElement(By.id("login-message")).getText()));
         driver.get(base() + live);
         signInAs("reader-ann", READER_PASSWORD);
         waitFor("no access page", d -> !d.findElements(By.cssSelector("body.notice-page h1")).isEmpty());
@@ -620,8 +621,8 @@ class BrowserUiTests {
         driver.manage().deleteAllCookies();
         driver.get(base() + "/");
         signInAs("admin", "not-the-password");
-        waitFor("login error", d -> d.getCurrentUrl().contains("/login.html?error"));
-        assertThat(driver.findElement(By.id("login-message")).getText()).startsWith("Wrong user name or password");
+        waitFor("login error", d -> d.getCurrentUrl().contains("/login.html?error")
+                && d.findElement(By.id("login-message")).getText().startsWith("Wrong user name or password"));
         screenshot("19-login-error");
         signInAs("admin", "admin-secret");
         waitFor("the app", d -> !d.findElements(By.id("main")).isEmpty());
