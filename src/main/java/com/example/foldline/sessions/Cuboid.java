@@ -23,8 +23,8 @@ import java.util.function.Predicate;
  * is held by a view ({@code LatticeCoverageTests} checks it).
  * Views of a later lattice are filled for existing data by {@link RollupFill} before questions may read them.
  *
- * <p>Lattice 3 adds <em>weekly twins</em>: for each large view that the entry-page and ad-density answers read, a
- * view with the same dimensions whose cells hold whole weeks (Monday to Sunday of the site's local days, stored under
+ * <p>Lattice 3 adds <em>weekly twins</em>: for each daily view but the smallest and the hourly ones, a view with the
+ * same dimensions whose cells hold whole weeks (Monday to Sunday of the site's local days, stored under
  * the Monday). A question over a range of days reads the range's whole weeks from the twin and only the days before
  * and after them from the daily view ({@link #split}): a 90-day question reads 18 cells per combination instead of
  * 90, a 30-day one 6 or 12 instead of 30. Twins are never chosen by {@link #cheapest}; a question that groups by day
@@ -40,8 +40,8 @@ public record Cuboid(int id, Set<Dim> dims, long size, int lattice, int weekOf) 
     /** The current lattice version; {@link RollupFill} fills views newer than a site's rollups. */
     public static final int LATTICE = 3;
 
-    /** Daily views at least this large (nominal rows per day) that the entry-page or density answers read get a twin. */
-    static final long TWIN_SIZE = 700;
+    /** Daily views at least this large (nominal rows per day) get a weekly twin; smaller ones are cheap to read. */
+    static final long TWIN_SIZE = 50;
 
     /**
      * Nominal distinct values per day of each dimension on a large site, for ranking views only (the planner's
@@ -111,15 +111,13 @@ public record Cuboid(int id, Set<Dim> dims, long size, int lattice, int weekOf) 
 
     /**
      * The daily views followed by the weekly twins of lattice 3, numbered from {@code firstTwin} in the order of
-     * their daily views: every view of at least {@link #TWIN_SIZE} nominal rows a day that holds the entry path, the
-     * ads on the entry page or the ads on a page, and no hour.
+     * their daily views: every view of at least {@link #TWIN_SIZE} nominal rows a day without the hour.
      */
     private static List<Cuboid> withTwins(int firstTwin, List<Cuboid> daily) {
         List<Cuboid> all = new ArrayList<>(daily);
         int id = firstTwin;
         for (Cuboid c : daily) {
-            if (c.size >= TWIN_SIZE && !c.has(Dim.HOUR)
-                    && (c.has(Dim.ENTRY_PATH) || c.has(Dim.ENTRY_ADS) || c.has(Dim.ADS))) {
+            if (c.size >= TWIN_SIZE && !c.has(Dim.HOUR)) {
                 all.add(new Cuboid(id++, c.dims, c.size, 3, c.id));
             }
         }

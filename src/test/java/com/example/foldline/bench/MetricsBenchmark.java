@@ -86,7 +86,9 @@ final class MetricsBenchmark {
 
     static String h2Url() throws Exception {
         Path dir = Files.createTempDirectory("foldline-bench-metrics");
-        return "jdbc:h2:file:" + dir.resolve("foldline") + IngestBenchmark.H2_OPTIONS;
+        // no reuse of a repeated query's result (H2 keeps the last result of each cached statement): every timed
+        // call reads the rollups, as DuckDB scans its table every time
+        return "jdbc:h2:file:" + dir.resolve("foldline") + IngestBenchmark.H2_OPTIONS + ";OPTIMIZE_REUSE_RESULTS=0";
     }
 
     static List<Question> questions(int runs) {
@@ -124,12 +126,16 @@ final class MetricsBenchmark {
             printViewSizes(name, app.getBean(DataSource.class), site.id());
             Map<String, List<Double>> times = new LinkedHashMap<>();
             Map<String, Integer> fallbacks = new LinkedHashMap<>();
+            Map<String, List<String>> calls = new LinkedHashMap<>();
             for (int warm = 0; warm < 2; warm++) {
                 for (Question q : questions) {
                     long start = System.nanoTime();
                     Object answer = call(metrics, requests, site, q, last);
                     if (warm == 1) {
-                        times.computeIfAbsent(q.answer(), k -> new ArrayList<>()).add((System.nanoTime() - start) / 1e6);
+                        double ms = (System.nanoTime() - start) / 1e6;
+                        times.computeIfAbsent(q.answer(), k -> new ArrayList<>()).add(ms);
+                        calls.computeIfAbsent(q.answer(), k -> new ArrayList<>()).add(String.format("%09.1f ms %d days %s (%s)",
+                                ms, q.days(), q.filter().isEmpty() ? "no filter" : q.filter(), answeredFrom(answer)));
                         if (answeredFrom(answer).contains("session_fact")) {
                             fallbacks.merge(q.answer() + " " + (q.filter().isEmpty() ? "(none)" : q.filter()), 1,
                                     Integer::sum);
@@ -139,6 +145,9 @@ final class MetricsBenchmark {
             }
             System.out.printf("%s: calls answered from session_fact (no view holds them): %s%n", name,
                     fallbacks.isEmpty() ? "none" : fallbacks);
+            System.out.printf("%s: the two slowest timed calls of each answer:%n", name);
+            calls.forEach((a, list) -> list.stream().sorted(java.util.Comparator.reverseOrder()).limit(2)
+                    .forEach(c -> System.out.printf("  %-10s %s%n", a, c.replaceFirst("^0+(?=\\d)", ""))));
             Map<String, double[]> result = new LinkedHashMap<>();
             times.forEach((k, v) -> result.put(k, percentiles(v)));
             if (timeFill) {
