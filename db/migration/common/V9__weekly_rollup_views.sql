@@ -1,6 +1,9 @@
--- Issue #3: lattice 3 of the rollups adds weekly twins of the large views that the entry-page and ad-density answers
--- read (sessions/Cuboid.java, docs/architecture.md): the same dimensions, one cell per Monday-to-Sunday week of the
--- site's local days. Sites that already have rollups are marked here, as V8 did for lattice 2; RollupFill fills the
--- twins a week at a time on startup, and until a site's row says 'done' questions read the daily views only.
-INSERT INTO rollup_fill (site_id, lattice, state)
-SELECT s.id, 3, 'pending' FROM site s WHERE EXISTS (SELECT 1 FROM rollup_session r WHERE r.site_id = s.id);
+-- Issue #3: weekly twins of the rollup views (sessions/Cuboid.java, docs/architecture.md). Their rows live in
+-- rollup_session and rollup_page under new view ids, one cell per Monday-to-Sunday week stored under the Monday.
+-- A week's twins are built from its daily rows once the week is over (sessions/WeeklyViews.java); this table records
+-- the Monday of the last built week of each site. Existing sites have no row: their past weeks are built by the
+-- sessionizer's next run, and until then questions read the daily views only.
+CREATE TABLE rollup_week (
+    site_id       BIGINT NOT NULL PRIMARY KEY REFERENCES site (id) ON DELETE CASCADE,
+    built_through DATE   NOT NULL
+);

@@ -46,7 +46,8 @@ public class BulkSessions {
         return tx.execute(status -> {
             repository.lockSite(site.id());
             List<SessionFact> fresh = repository.insertImported(facts, clock.instant());
-            Contributions contributions = lattice >= Cuboid.LATTICE ? new Contributions()
+            Contributions contributions = lattice >= Cuboid.LATTICE
+                    ? new Contributions(rollups.weeksBuiltThrough(site.id()))
                     : new Contributions(Cuboid.SESSION.stream().filter(c -> c.lattice() <= lattice).toList(),
                     Cuboid.PAGE.stream().filter(c -> c.lattice() <= lattice).toList());
             fresh.forEach(s -> contributions.add(s, +1));

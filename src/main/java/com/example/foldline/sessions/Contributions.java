@@ -64,16 +64,28 @@ final class Contributions {
     final Map<PageCell, PageMeasures> pageCells = new HashMap<>();
     private final List<Cuboid> sessionViews;
     private final List<Cuboid> pageViews;
+    /** Weekly twins get the contributions of sessions in weeks up to this Monday (they are built); null: none. */
+    private final LocalDate weeksThrough;
 
-    /** Contributions to every view. */
-    Contributions() {
-        this(Cuboid.SESSION, Cuboid.PAGE);
+    /**
+     * Contributions to every daily view, and to the weekly twins for sessions in weeks the twins already hold
+     * ({@link WeeklyViews}: later weeks are built from the daily views once they are over).
+     *
+     * @param weeksThrough the Monday of the last built week, or null
+     */
+    Contributions(LocalDate weeksThrough) {
+        this(Cuboid.SESSION, Cuboid.PAGE, weeksThrough);
     }
 
-    /** Contributions to the given views only (filling views a site's rollups lack, {@link RollupFill}). */
+    /** Contributions to the given daily views only (filling views a site's rollups lack, {@link RollupFill}). */
     Contributions(List<Cuboid> sessionViews, List<Cuboid> pageViews) {
+        this(sessionViews, pageViews, null);
+    }
+
+    private Contributions(List<Cuboid> sessionViews, List<Cuboid> pageViews, LocalDate weeksThrough) {
         this.sessionViews = sessionViews;
         this.pageViews = pageViews;
+        this.weeksThrough = weeksThrough;
     }
 
     boolean isEmpty() {
@@ -84,7 +96,11 @@ final class Contributions {
         if (!s.closed()) {
             return;
         }
+        boolean weekBuilt = weeksThrough != null && !Cuboid.monday(s.localDay()).isAfter(weeksThrough);
         for (Cuboid c : sessionViews) {
+            if (c.weekly() && !weekBuilt) {
+                continue;
+            }
             SessionCell key = new SessionCell(c.id(), c.cellDay(s.localDay()),
                     c.has(Dim.HOUR) ? s.localHour() : -1,
                     text(c, Dim.DEVICE, s.device()), text(c, Dim.SOURCE, s.source()),
@@ -113,6 +129,9 @@ final class Contributions {
             int position = i == 0 ? 0 : 1;
             boolean exit = i == pages.size() - 1;
             for (Cuboid c : pageViews) {
+                if (c.weekly() && !weekBuilt) {
+                    continue;
+                }
                 PageCell key = new PageCell(c.id(), c.cellDay(s.localDay()),
                         text(c, Dim.DEVICE, s.device()), text(c, Dim.SOURCE, s.source()),
                         text(c, Dim.BROWSER, s.browser()), text(c, Dim.VARIANT, s.variant()),

@@ -23,22 +23,24 @@ import java.util.function.Predicate;
  * is held by a view ({@code LatticeCoverageTests} checks it).
  * Views of a later lattice are filled for existing data by {@link RollupFill} before questions may read them.
  *
- * <p>Lattice 3 adds <em>weekly twins</em>: for each daily view but the smallest and the hourly ones, a view with the
- * same dimensions whose cells hold whole weeks (Monday to Sunday of the site's local days, stored under
- * the Monday). A question over a range of days reads the range's whole weeks from the twin and only the days before
- * and after them from the daily view ({@link #split}): a 90-day question reads 18 cells per combination instead of
- * 90, a 30-day one 6 or 12 instead of 30. Twins are never chosen by {@link #cheapest}; a question that groups by day
- * or hour cannot use them.
+ * <p><em>Weekly twins</em> (migration V9): each daily view but the smallest and the hourly ones has a twin with the
+ * same dimensions whose cells hold whole weeks (Monday to Sunday of the site's local days, stored under the Monday).
+ * A question over a range of days reads the range's whole, already built weeks from the twin and only the other days
+ * from the daily view ({@link #split}): a 90-day question reads 18 cells per combination instead of 90, a 30-day one
+ * 6 or 12 instead of 30. Twins are built a week at a time once the week is over ({@link WeeklyViews}) and kept up to
+ * date from then on; they are never chosen by {@link #cheapest}, and a question that groups by day or hour cannot use
+ * them.
  *
  * @param size the view's nominal rows per day: the product of {@link #CARDINALITY} over its dimensions, the cost
  *             measure of Harinarayan et al. (smaller is cheaper to read)
- * @param lattice the lattice version that introduced the view (1: the views shipped with V2)
+ * @param lattice the lattice version that introduced the view (1: the views shipped with V2); a twin's is its daily
+ *                view's
  * @param weekOf for a weekly twin, the id of the daily view it sums by week; −1 for a daily view
  */
 public record Cuboid(int id, Set<Dim> dims, long size, int lattice, int weekOf) {
 
     /** The current lattice version; {@link RollupFill} fills views newer than a site's rollups. */
-    public static final int LATTICE = 3;
+    public static final int LATTICE = 2;
 
     /** Daily views at least this large (nominal rows per day) get a weekly twin; smaller ones are cheap to read. */
     static final long TWIN_SIZE = 50;
@@ -110,15 +112,15 @@ public record Cuboid(int id, Set<Dim> dims, long size, int lattice, int weekOf) 
     }
 
     /**
-     * The daily views followed by the weekly twins of lattice 3, numbered from {@code firstTwin} in the order of
-     * their daily views: every view of at least {@link #TWIN_SIZE} nominal rows a day without the hour.
+     * The daily views followed by their weekly twins, numbered from {@code firstTwin} in the order of the daily
+     * views: every view of at least {@link #TWIN_SIZE} nominal rows a day without the hour.
      */
     private static List<Cuboid> withTwins(int firstTwin, List<Cuboid> daily) {
         List<Cuboid> all = new ArrayList<>(daily);
         int id = firstTwin;
         for (Cuboid c : daily) {
             if (c.size >= TWIN_SIZE && !c.has(Dim.HOUR)) {
-                all.add(new Cuboid(id++, c.dims, c.size, 3, c.id));
+                all.add(new Cuboid(id++, c.dims, c.size, c.lattice, c.id));
             }
         }
         return List.copyOf(all);
@@ -149,13 +151,19 @@ public record Cuboid(int id, Set<Dim> dims, long size, int lattice, int weekOf) 
 
     /**
      * Splits the local days {@code from}..{@code to} into the days before the first whole Monday-to-Sunday week
-     * (read from {@code daily}), the whole weeks (from {@code weekly}, when present) and the days after them; a range
-     * without a whole week, or without a twin, is one part of the daily view.
+     * (read from {@code daily}), the whole weeks up to the week of {@code builtThrough} (from {@code weekly}, when
+     * present) and the days after them; a range without such a week, or without a twin, is one part of the daily view.
+     *
+     * @param builtThrough the Monday of the last week the twins hold ({@link WeeklyViews}), or null for none
      */
-    static List<Part> split(Cuboid daily, Optional<Cuboid> weekly, LocalDate from, LocalDate to) {
+    static List<Part> split(Cuboid daily, Optional<Cuboid> weekly, LocalDate from, LocalDate to,
+                            LocalDate builtThrough) {
         LocalDate firstMonday = from.with(TemporalAdjusters.nextOrSame(DayOfWeek.MONDAY));
         LocalDate lastSunday = to.with(TemporalAdjusters.previousOrSame(DayOfWeek.SUNDAY));
-        if (weekly.isEmpty() || lastSunday.isBefore(firstMonday.plusDays(6))) {
+        if (builtThrough != null && lastSunday.isAfter(builtThrough.plusDays(6))) {
+            lastSunday = builtThrough.plusDays(6);
+        }
+        if (weekly.isEmpty() || builtThrough == null || lastSunday.isBefore(firstMonday.plusDays(6))) {
             return List.of(new Part(daily, from, to));
         }
         List<Part> parts = new ArrayList<>(3);

@@ -87,8 +87,9 @@ public class RollupFill {
 
     /** Fills the views of {@code lattice} for one site from its stored sessions. */
     public Report fill(long siteId, int lattice) {
-        List<Cuboid> sessionViews = Cuboid.SESSION.stream().filter(c -> c.lattice() == lattice).toList();
-        List<Cuboid> pageViews = Cuboid.PAGE.stream().filter(c -> c.lattice() == lattice).toList();
+        // daily views only: their weekly twins are built from them afterwards (WeeklyViews)
+        List<Cuboid> sessionViews = Cuboid.SESSION.stream().filter(c -> c.lattice() == lattice && !c.weekly()).toList();
+        List<Cuboid> pageViews = Cuboid.PAGE.stream().filter(c -> c.lattice() == lattice && !c.weekly()).toList();
         List<Integer> sessionIds = sessionViews.stream().map(Cuboid::id).toList();
         List<Integer> pageIds = pageViews.stream().map(Cuboid::id).toList();
         Map<String, Object> range = jdbc.queryForMap("""
@@ -137,6 +138,11 @@ public class RollupFill {
             }
         }
         LocalDate completeFrom = lastIncomplete == null ? null : lastIncomplete.plusDays(1);
+        // twins built meanwhile summed the new views while they were empty: drop them, the sessionizer rebuilds them
+        tx.executeWithoutResult(status -> {
+            sessions.lockSite(siteId);
+            writer.forgetWeeks(siteId);
+        });
         jdbc.update("UPDATE rollup_fill SET state = 'done', complete_from = ?, filled_at = ? "
                         + "WHERE site_id = ? AND lattice = ?", completeFrom == null ? null : Date.valueOf(completeFrom),
                 Timestamp.from(clock.instant()), siteId, lattice);

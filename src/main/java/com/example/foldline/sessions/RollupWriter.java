@@ -293,9 +293,83 @@ class RollupWriter {
         return String.join(", ", ids.stream().map(String::valueOf).toList());
     }
 
-    /** Removes every rollup row of a site (before a rebuild). */
+    /** Removes every rollup row of a site (before a rebuild), and its record of built weeks. */
     void clear(long siteId) {
         jdbc.update("DELETE FROM rollup_session WHERE site_id = ?", siteId);
         jdbc.update("DELETE FROM rollup_page WHERE site_id = ?", siteId);
+        jdbc.update("DELETE FROM rollup_week WHERE site_id = ?", siteId);
+    }
+
+    // ---- weekly twins (WeeklyViews) ----
+
+    private static final String SESSION_KEYS = "local_hour, device, source, browser, variant, country, region, "
+            + "entry_ads, pages, entry_path";
+    private static final String SESSION_SUMS = "sessions, bounces, pageviews, pageviews_sq, engaged_ms, engaged_sq, "
+            + "revenue_micros, revenue_sq, entry_ads_sum, impressions, viewable_impressions, clicks";
+    private static final String PAGE_KEYS = "device, source, browser, variant, country, region, ads, page_position, "
+            + "engaged_bucket";
+    private static final String PAGE_SUMS = "pageviews, exits, engaged_ms, revenue_micros, revenue_sq, impressions, "
+            + "viewable_impressions, clicks";
+
+    /** The Monday of the last week whose weekly twins are built for the site, or null. */
+    java.time.LocalDate weeksBuiltThrough(long siteId) {
+        List<java.time.LocalDate> d = jdbc.query("SELECT built_through FROM rollup_week WHERE site_id = ?",
+                (rs, i) -> rs.getObject(1, java.time.LocalDate.class), siteId);
+        return d.isEmpty() ? null : d.get(0);
+    }
+
+    void weeksBuiltThrough(long siteId, java.time.LocalDate monday) {
+        if (jdbc.update("UPDATE rollup_week SET built_through = ? WHERE site_id = ?", Date.valueOf(monday),
+                siteId) == 0) {
+            jdbc.update("INSERT INTO rollup_week (site_id, built_through) VALUES (?, ?)", siteId,
+                    Date.valueOf(monday));
+        }
+    }
+
+    /** Removes the site's weekly twin rows and its record of built weeks (they are built again). */
+    void forgetWeeks(long siteId) {
+        jdbc.update("DELETE FROM rollup_session WHERE site_id = ? AND cuboid IN (" + ids(twins(Cuboid.SESSION)) + ")",
+                siteId);
+        jdbc.update("DELETE FROM rollup_page WHERE site_id = ? AND cuboid IN (" + ids(twins(Cuboid.PAGE)) + ")",
+                siteId);
+        jdbc.update("DELETE FROM rollup_week WHERE site_id = ?", siteId);
+    }
+
+    /** The site's first local day with rollups, or null. */
+    java.time.LocalDate firstDay(long siteId) {
+        return jdbc.queryForObject("SELECT MIN(local_day) FROM rollup_session WHERE site_id = ? AND cuboid = 0",
+                (rs, i) -> rs.getObject(1, java.time.LocalDate.class), siteId);
+    }
+
+    /**
+     * Builds every weekly twin's cells of the week starting on {@code monday} from its daily view's cells of that
+     * week: one INSERT … SELECT … GROUP BY per twin, a range of the primary key (site, view, day) each (H2 uses an
+     * {@code IN} list only on an index's first column, so one statement for all views would scan the site).
+     */
+    void buildWeek(long siteId, java.time.LocalDate monday) {
+        Date from = Date.valueOf(monday);
+        Date to = Date.valueOf(monday.plusDays(6));
+        // a week after the last built one has no twin rows: nothing adds to twins of unbuilt weeks (Contributions)
+        // view ids and column names are constants of this class and of Cuboid, never input
+        for (Cuboid twin : Cuboid.SESSION.stream().filter(Cuboid::weekly).toList()) {
+            jdbc.update("INSERT INTO rollup_session (site_id, cuboid, local_day, " + SESSION_KEYS + ", " + SESSION_SUMS
+                    + ") SELECT site_id, " + twin.id() + ", ?, " + SESSION_KEYS + ", " + sums(SESSION_SUMS)
+                    + " FROM rollup_session WHERE site_id = ? AND cuboid = " + twin.weekOf()
+                    + " AND local_day BETWEEN ? AND ? GROUP BY site_id, " + SESSION_KEYS, from, siteId, from, to);
+        }
+        for (Cuboid twin : Cuboid.PAGE.stream().filter(Cuboid::weekly).toList()) {
+            jdbc.update("INSERT INTO rollup_page (site_id, cuboid, local_day, " + PAGE_KEYS + ", " + PAGE_SUMS
+                    + ") SELECT site_id, " + twin.id() + ", ?, " + PAGE_KEYS + ", " + sums(PAGE_SUMS)
+                    + " FROM rollup_page WHERE site_id = ? AND cuboid = " + twin.weekOf()
+                    + " AND local_day BETWEEN ? AND ? GROUP BY site_id, " + PAGE_KEYS, from, siteId, from, to);
+        }
+    }
+
+    private static List<Integer> twins(List<Cuboid> views) {
+        return views.stream().filter(Cuboid::weekly).map(Cuboid::id).toList();
+    }
+
+    private static String sums(String columns) {
+        return String.join(", ", java.util.Arrays.stream(columns.split(", ")).map(c -> "SUM(" + c + ")").toList());
     }
 }

@@ -76,10 +76,12 @@ public class Rollups {
 
     private final NamedParameterJdbcTemplate jdbc;
     private final RollupFill fills;
+    private final WeeklyViews weeks;
 
-    Rollups(NamedParameterJdbcTemplate jdbc, RollupFill fills) {
+    Rollups(NamedParameterJdbcTemplate jdbc, RollupFill fills, WeeklyViews weeks) {
         this.jdbc = jdbc;
         this.fills = fills;
+        this.weeks = weeks;
     }
 
     /** Session measures grouped by {@code groupBy} (and by day when {@code byDay}). */
@@ -90,7 +92,7 @@ public class Rollups {
         if (view.isEmpty()) {
             return sessionsFromFacts(siteId, filter, groupBy, byDay);
         }
-        List<Cuboid.Part> parts = parts(Cuboid.SESSION, view.get(), usable, filter, byDay);
+        List<Cuboid.Part> parts = parts(siteId, Cuboid.SESSION, view.get(), usable, filter, byDay);
         List<List<Group<SessionTotals>>> read = new ArrayList<>(parts.size());
         for (Cuboid.Part part : parts) {
             Read q = read(siteId, part, groupBy, byDay, filter);
@@ -133,7 +135,7 @@ public class Rollups {
         if (view.isEmpty()) {
             return pagesFromSessions(siteId, filter, groupBy, byDay);
         }
-        List<Cuboid.Part> parts = parts(Cuboid.PAGE, view.get(), usable, filter, byDay);
+        List<Cuboid.Part> parts = parts(siteId, Cuboid.PAGE, view.get(), usable, filter, byDay);
         List<List<Group<PageTotals>>> read = new ArrayList<>(parts.size());
         for (Cuboid.Part part : parts) {
             Read q = read(siteId, part, groupBy, byDay, filter);
@@ -144,11 +146,14 @@ public class Rollups {
         return new PageAnswer(plan("rollup_page", parts), merge(read, PageTotals::plus, groupBy));
     }
 
-    /** The parts a question reads: whole weeks from the view's weekly twin where it has one and may use it. */
-    private static List<Cuboid.Part> parts(List<Cuboid> views, Cuboid daily, Predicate<Cuboid> usable,
-                                           SegmentFilter filter, boolean byDay) {
+    /** The parts a question reads: built whole weeks from the view's weekly twin where it has one and may use it. */
+    private List<Cuboid.Part> parts(long siteId, List<Cuboid> views, Cuboid daily, Predicate<Cuboid> usable,
+                                    SegmentFilter filter, boolean byDay) {
         Optional<Cuboid> twin = byDay ? Optional.empty() : Cuboid.twin(views, daily, usable);
-        return Cuboid.split(daily, twin, filter.from(), filter.to());
+        if (twin.isEmpty() || filter.to().toEpochDay() - filter.from().toEpochDay() < 6) {
+            return List.of(new Cuboid.Part(daily, filter.from(), filter.to()));
+        }
+        return Cuboid.split(daily, twin, filter.from(), filter.to(), weeks.builtThrough(siteId));
     }
 
     private static Plan plan(String table, List<Cuboid.Part> parts) {

@@ -41,24 +41,28 @@ public class Sessionizer {
 
     private final SessionRepository repository;
     private final RollupWriter rollups;
+    private final WeeklyViews weeks;
     private final Sites sites;
     private final TransactionTemplate tx;
     private final Clock clock;
 
     private final boolean scheduled;
 
-    Sessionizer(SessionRepository repository, RollupWriter rollups, Sites sites, TransactionTemplate tx, Clock clock,
+    Sessionizer(SessionRepository repository, RollupWriter rollups, WeeklyViews weeks, Sites sites,
+                TransactionTemplate tx, Clock clock,
                 @org.springframework.beans.factory.annotation.Value("${foldline.sessions.enabled:true}") boolean scheduled) {
         this.scheduled = scheduled;
         this.repository = repository;
         this.rollups = rollups;
+        this.weeks = weeks;
         this.sites = sites;
         this.tx = tx;
         this.clock = clock;
     }
 
     /** What one run did. */
-    public record Report(long siteId, long batches, long sessionsWritten, long sessionsClosed, long importsRolledUp) {
+    public record Report(long siteId, long batches, long sessionsWritten, long sessionsClosed, long importsRolledUp,
+                         int weeksBuilt) {
     }
 
     @Scheduled(fixedDelayString = "${foldline.sessions.interval:PT5S}", initialDelayString = "PT10S")
@@ -82,7 +86,10 @@ public class Sessionizer {
         return reports;
     }
 
-    /** Processes all pending work of one site: new events, imported sessions, and sessions gone idle. */
+    /**
+     * Processes all pending work of one site: new events, imported sessions, sessions gone idle, and the weekly
+     * views of weeks that are over ({@link WeeklyViews}).
+     */
     public Report run(long siteId) {
         Site site = sites.require(siteId);
         long inbox = 0;
@@ -116,7 +123,7 @@ public class Sessionizer {
             }
             closed += n;
         }
-        return new Report(siteId, inbox, written, closed, imported);
+        return new Report(siteId, inbox, written, closed, imported, weeks.build(site));
     }
 
     private Instant closeBefore(Site site) {
@@ -196,7 +203,7 @@ public class Sessionizer {
         }
         Duration timeout = Duration.ofMinutes(site.sessionTimeoutMinutes());
         Instant closeBefore = closeBefore(site);
-        Contributions contributions = new Contributions();
+        Contributions contributions = new Contributions(rollups.weeksBuiltThrough(site.id()));
         long written = 0;
         List<String> visitors = new ArrayList<>(earliest.keySet());
         for (List<String> chunk : SessionRepository.chunks(visitors, SessionRepository.LOOKUP)) {
@@ -303,7 +310,7 @@ public class Sessionizer {
         if (pending.isEmpty()) {
             return 0;
         }
-        Contributions contributions = new Contributions();
+        Contributions contributions = new Contributions(rollups.weeksBuiltThrough(site.id()));
         for (SessionFact s : pending) {
             contributions.add(ImportedPages.withPages(s), +1);
         }
@@ -329,7 +336,7 @@ public class Sessionizer {
         if (idle.isEmpty()) {
             return 0;
         }
-        Contributions contributions = new Contributions();
+        Contributions contributions = new Contributions(rollups.weeksBuiltThrough(site.id()));
         for (SessionFact s : idle) {
             contributions.add(s.withClosed(true), +1);
         }

@@ -37,7 +37,7 @@ public class VisitorData {
         return tx.execute(status -> {
             sessions.lockSite(siteId);
             List<SessionFact> facts = sessions.visitorSessions(siteId, pseudonym);
-            Contributions contributions = new Contributions();
+            Contributions contributions = new Contributions(rollups.weeksBuiltThrough(siteId));
             facts.forEach(s -> contributions.add(s.origin().equals("import") ? ImportedPages.withPages(s) : s, -1));
             rollups.apply(siteId, contributions);
             int pageEnds = jdbc.update("""

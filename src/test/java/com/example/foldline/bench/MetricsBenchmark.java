@@ -26,6 +26,7 @@ import com.example.foldline.metrics.MetricRequestFactory;
 import com.example.foldline.metrics.MetricsService;
 import com.example.foldline.sessions.Cuboid;
 import com.example.foldline.sessions.RollupFill;
+import com.example.foldline.sessions.WeeklyViews;
 import com.example.foldline.sites.Site;
 
 /**
@@ -118,6 +119,15 @@ final class MetricsBenchmark {
             double load = (System.nanoTime() - t0) / 1e9;
             System.out.printf("%s: loaded %,d sessions with rollups in %.1f s (%,.0f sessions/s)%n", name,
                     seeded.sessions(), load, seeded.sessions() / load);
+            // what the sessionizer's next run does after a history load: build the weekly views of past weeks
+            long t1 = System.nanoTime();
+            int weeks = 0;
+            for (Site s : seeded.sites()) {
+                weeks += app.getBean(WeeklyViews.class).build(s);
+            }
+            double built = (System.nanoTime() - t1) / 1e9;
+            System.out.printf("%s: built the weekly views of %d site-weeks in %.1f s; load and build together %,.0f "
+                    + "sessions/s%n", name, weeks, built, seeded.sessions() / (load + built));
             exportOnce(app.getBean(DataSource.class));
             Site site = seeded.sites().stream().filter(s -> s.domain().startsWith("harborview")).findFirst().orElseThrow();
             MetricsService metrics = app.getBean(MetricsService.class);

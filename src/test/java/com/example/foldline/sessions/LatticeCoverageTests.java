@@ -131,7 +131,7 @@ class LatticeCoverageTests {
         Cuboid pagesDaily = Cuboid.SESSION.stream().filter(c -> c.id() == 45).findFirst().orElseThrow();
         Cuboid twin = Cuboid.twin(Cuboid.SESSION, pagesDaily, c -> true).orElseThrow();
         assertThat(twin.weekly()).isTrue();
-        assertThat(twin.lattice()).isEqualTo(3);
+        assertThat(twin.lattice()).isEqualTo(pagesDaily.lattice());
         assertThat(twin.dims()).isEqualTo(pagesDaily.dims());
         assertThat(twin.id()).isGreaterThan(46);
         assertThat(Cuboid.SESSION.stream().filter(Cuboid::weekly).map(Cuboid::weekOf))
@@ -151,32 +151,48 @@ class LatticeCoverageTests {
     }
 
     @Test
-    void aRangeIsSplitIntoItsWholeWeeksAndTheDaysAroundThem() {
+    void aRangeIsSplitIntoItsBuiltWholeWeeksAndTheDaysAroundThem() {
         Cuboid daily = Cuboid.SESSION.stream().filter(c -> c.id() == 18).findFirst().orElseThrow();
         Optional<Cuboid> twin = Cuboid.twin(Cuboid.SESSION, daily, c -> true);
+        LocalDate built = LocalDate.parse("2026-11-23"); // every week up to the one of Monday 23 November is built
         // Wednesday 2026-10-14 to Wednesday 2026-11-04: Wed-Sun, two whole weeks, Mon-Wed
-        assertThat(Cuboid.split(daily, twin, LocalDate.parse("2026-10-14"), LocalDate.parse("2026-11-04")))
-                .containsExactly(new Cuboid.Part(daily, LocalDate.parse("2026-10-14"), LocalDate.parse("2026-10-18")),
-                        new Cuboid.Part(twin.get(), LocalDate.parse("2026-10-19"), LocalDate.parse("2026-11-01")),
-                        new Cuboid.Part(daily, LocalDate.parse("2026-11-02"), LocalDate.parse("2026-11-04")));
+        assertThat(Cuboid.split(daily, twin, day("2026-10-14"), day("2026-11-04"), built)).containsExactly(
+                new Cuboid.Part(daily, day("2026-10-14"), day("2026-10-18")),
+                new Cuboid.Part(twin.get(), day("2026-10-19"), day("2026-11-01")),
+                new Cuboid.Part(daily, day("2026-11-02"), day("2026-11-04")));
         // exactly one week: the twin alone
-        assertThat(Cuboid.split(daily, twin, LocalDate.parse("2026-10-19"), LocalDate.parse("2026-10-25")))
-                .containsExactly(new Cuboid.Part(twin.get(), LocalDate.parse("2026-10-19"),
-                        LocalDate.parse("2026-10-25")));
-        // no whole week (Tuesday to the next Monday), or no twin: the daily view alone
-        assertThat(Cuboid.split(daily, twin, LocalDate.parse("2026-10-20"), LocalDate.parse("2026-10-26")))
-                .containsExactly(new Cuboid.Part(daily, LocalDate.parse("2026-10-20"), LocalDate.parse("2026-10-26")));
-        assertThat(Cuboid.split(daily, Optional.empty(), LocalDate.parse("2026-10-14"), LocalDate.parse("2026-11-04")))
-                .containsExactly(new Cuboid.Part(daily, LocalDate.parse("2026-10-14"), LocalDate.parse("2026-11-04")));
-        // 90 days always read 18 cells per combination: 12 weeks and 6 days
-        for (LocalDate from = LocalDate.parse("2026-09-01"); from.isBefore(LocalDate.parse("2026-09-08"));
-             from = from.plusDays(1)) {
-            List<Cuboid.Part> parts = Cuboid.split(daily, twin, from, from.plusDays(89));
+        assertThat(Cuboid.split(daily, twin, day("2026-10-19"), day("2026-10-25"), built))
+                .containsExactly(new Cuboid.Part(twin.get(), day("2026-10-19"), day("2026-10-25")));
+        // no whole week (Tuesday to the next Monday), no twin, or no week built: the daily view alone
+        assertThat(Cuboid.split(daily, twin, day("2026-10-20"), day("2026-10-26"), built))
+                .containsExactly(new Cuboid.Part(daily, day("2026-10-20"), day("2026-10-26")));
+        assertThat(Cuboid.split(daily, Optional.empty(), day("2026-10-14"), day("2026-11-04"), built))
+                .containsExactly(new Cuboid.Part(daily, day("2026-10-14"), day("2026-11-04")));
+        assertThat(Cuboid.split(daily, twin, day("2026-10-14"), day("2026-11-04"), null))
+                .containsExactly(new Cuboid.Part(daily, day("2026-10-14"), day("2026-11-04")));
+        // weeks after the last built one are read day by day
+        assertThat(Cuboid.split(daily, twin, day("2026-11-11"), day("2026-12-02"), built)).containsExactly(
+                new Cuboid.Part(daily, day("2026-11-11"), day("2026-11-15")),
+                new Cuboid.Part(twin.get(), day("2026-11-16"), day("2026-11-29")),
+                new Cuboid.Part(daily, day("2026-11-30"), day("2026-12-02")));
+        assertThat(Cuboid.split(daily, twin, day("2026-11-11"), day("2026-12-02"), day("2026-11-16")))
+                .containsExactly(new Cuboid.Part(daily, day("2026-11-11"), day("2026-11-15")),
+                        new Cuboid.Part(twin.get(), day("2026-11-16"), day("2026-11-22")),
+                        new Cuboid.Part(daily, day("2026-11-23"), day("2026-12-02")));
+        assertThat(Cuboid.split(daily, twin, day("2026-11-11"), day("2026-12-02"), day("2026-11-09")))
+                .containsExactly(new Cuboid.Part(daily, day("2026-11-11"), day("2026-12-02")));
+        // 90 days always read 18 cells per combination when every week is built: 12 weeks and 6 days
+        for (LocalDate from = day("2026-06-01"); from.isBefore(day("2026-06-08")); from = from.plusDays(1)) {
+            List<Cuboid.Part> parts = Cuboid.split(daily, twin, from, from.plusDays(89), built);
             long cells = parts.stream().mapToLong(p -> p.view().weekly()
                     ? (p.to().toEpochDay() - p.from().toEpochDay() + 1) / 7
                     : p.to().toEpochDay() - p.from().toEpochDay() + 1).sum();
             assertThat(cells).as("from %s", from).isEqualTo(18);
         }
+    }
+
+    private static LocalDate day(String text) {
+        return LocalDate.parse(text);
     }
 
     private static Cuboid view(String answer, Set<Dim> axis, Set<Dim> filter) {

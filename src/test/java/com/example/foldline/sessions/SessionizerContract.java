@@ -271,14 +271,25 @@ abstract class SessionizerContract {
                 }).list().stream().sorted().toList();
     }
 
-    /** Every rollup view adds up to the stored closed sessions. */
+    /**
+     * Every daily rollup view adds up to the stored closed sessions, and every weekly view to those of the weeks it
+     * holds (up to the site's built-through Monday, WeeklyViews).
+     */
     private void assertRollupsAddUp(Site site) {
-        Map<String, Object> facts = jdbc.sql("""
+        java.time.LocalDate built = jdbc.sql("SELECT built_through FROM rollup_week WHERE site_id = :s")
+                .param("s", site.id()).query(java.time.LocalDate.class).optional().orElse(null);
+        String factSums = """
                 SELECT COUNT(*) AS sessions, COALESCE(SUM(pageviews), 0) AS pageviews,
                        COALESCE(SUM(revenue_micros), 0) AS revenue, COALESCE(SUM(engaged_ms), 0) AS engaged,
                        COUNT(*) FILTER (WHERE bounce) AS bounces
-                FROM session_fact WHERE site_id = :s AND closed = TRUE""").param("s", site.id()).query().singleRow();
+                FROM session_fact WHERE site_id = :s AND closed = TRUE AND local_day <= :last""";
+        Map<String, Object> all = jdbc.sql(factSums).param("s", site.id())
+                .param("last", java.time.LocalDate.parse("9999-12-31")).query().singleRow();
+        Map<String, Object> inBuiltWeeks = jdbc.sql(factSums).param("s", site.id())
+                .param("last", built == null ? java.time.LocalDate.parse("0001-01-01") : built.plusDays(6))
+                .query().singleRow();
         for (Cuboid c : Cuboid.SESSION) {
+            Map<String, Object> facts = c.weekly() ? inBuiltWeeks : all;
             Map<String, Object> view = jdbc.sql("""
                     SELECT COALESCE(SUM(sessions), 0) AS sessions, COALESCE(SUM(pageviews), 0) AS pageviews,
                            COALESCE(SUM(revenue_micros), 0) AS revenue, COALESCE(SUM(engaged_ms), 0) AS engaged,
@@ -291,6 +302,7 @@ abstract class SessionizerContract {
             }
         }
         for (Cuboid c : Cuboid.PAGE) {
+            Map<String, Object> facts = c.weekly() ? inBuiltWeeks : all;
             Number pv = (Number) jdbc.sql("""
                     SELECT COALESCE(SUM(pageviews), 0) FROM rollup_page WHERE site_id = :s AND cuboid = :c""")
                     .param("s", site.id()).param("c", c.id()).query().singleValue();
