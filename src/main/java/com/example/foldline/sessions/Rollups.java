@@ -93,15 +93,8 @@ public class Rollups {
             return sessionsFromFacts(siteId, filter, groupBy, byDay);
         }
         List<Cuboid.Part> parts = parts(siteId, Cuboid.SESSION, view.get(), usable, filter, byDay);
-        List<List<Group<SessionTotals>>> read = new ArrayList<>(parts.size());
-        for (Cuboid.Part part : parts) {
-            Read q = read(siteId, part, groupBy, byDay, filter);
-            read.add(jdbc.query("SELECT " + q.select() + SESSION_SUMS + " FROM rollup_session" + q.where(),
-                    q.params(), (rs, i) -> new Group<>(byDay ? rs.getObject("g0", LocalDate.class) : null,
-                            key(rs, groupBy, byDay ? 1 : 0), sessionTotals(rs))));
-        }
-        return new SessionAnswer(plan("rollup_session", parts),
-                merge(read, SessionTotals::plus, groupBy));
+        return new SessionAnswer(plan("rollup_session", parts), readParts("rollup_session", SESSION_SUMS, parts,
+                siteId, filter, groupBy, byDay, Rollups::sessionTotals, SessionTotals::plus));
     }
 
     /** Fallback: closed sessions aggregated directly (no view holds the combination). */
@@ -136,14 +129,28 @@ public class Rollups {
             return pagesFromSessions(siteId, filter, groupBy, byDay);
         }
         List<Cuboid.Part> parts = parts(siteId, Cuboid.PAGE, view.get(), usable, filter, byDay);
-        List<List<Group<PageTotals>>> read = new ArrayList<>(parts.size());
+        return new PageAnswer(plan("rollup_page", parts), readParts("rollup_page", PAGE_SUMS, parts, siteId, filter,
+                groupBy, byDay, Rollups::pageTotals, PageTotals::plus));
+    }
+
+    /** Reads one row's measures. */
+    @FunctionalInterface
+    private interface Totals<T> {
+        T read(ResultSet rs) throws SQLException;
+    }
+
+    /** One grouped query per part of the range ({@code table} and {@code sums} are constants), added up by key. */
+    private <T> List<Group<T>> readParts(String table, String sums, List<Cuboid.Part> parts, long siteId,
+                                         SegmentFilter filter, List<Dim> groupBy, boolean byDay, Totals<T> totals,
+                                         java.util.function.BinaryOperator<T> plus) {
+        List<List<Group<T>>> read = new ArrayList<>(parts.size());
         for (Cuboid.Part part : parts) {
             Read q = read(siteId, part, groupBy, byDay, filter);
-            read.add(jdbc.query("SELECT " + q.select() + PAGE_SUMS + " FROM rollup_page" + q.where(), q.params(),
+            read.add(jdbc.query("SELECT " + q.select() + sums + " FROM " + table + q.where(), q.params(),
                     (rs, i) -> new Group<>(byDay ? rs.getObject("g0", LocalDate.class) : null,
-                            key(rs, groupBy, byDay ? 1 : 0), pageTotals(rs))));
+                            key(rs, groupBy, byDay ? 1 : 0), totals.read(rs))));
         }
-        return new PageAnswer(plan("rollup_page", parts), merge(read, PageTotals::plus, groupBy));
+        return merge(read, plus, groupBy);
     }
 
     /** The parts a question reads: built whole weeks from the view's weekly twin where it has one and may use it. */
