@@ -19,16 +19,16 @@ import org.springframework.stereotype.Service;
 import org.springframework.transaction.support.TransactionTemplate;
 
 /**
- * Fills the rollup views that a site's rollups lack because they were built for an older lattice (migrations V8 and
- * V9 mark such sites in {@code rollup_fill}), and tells the planner which views it may read for a site.
+ * Fills the rollup views that a site's rollups lack because they were built for an older lattice (migration V8
+ * marks such sites in {@code rollup_fill}), and tells the planner which views it may read for a site.
  *
- * <p>A site is filled one local day at a time (weekly twins a week at a time), each in its own transaction under the
- * sessionizer's site lock: the new views' rows of that day are deleted and recomputed from the day's stored sessions
- * that the rollups hold (closed and rolled up), so sessionizer writes before and after a day's transaction stay
- * consistent. A day whose
+ * <p>A site is filled one local day at a time, each day in its own transaction under the sessionizer's site lock:
+ * the new views' rows of that day are deleted and recomputed from the day's stored sessions that the rollups hold
+ * (closed and rolled up), so sessionizer writes before and after a day's transaction stay consistent. A day whose
  * stored sessions no longer add up to view 0 (retention deleted some; the rollups keep them) cannot be filled; the
  * site's new views are then complete only from the day after the last such day, and {@link #usable} keeps questions
- * that reach back further on the older views. Until a site is done, its new views are not read at all.
+ * that reach back further on the older views. Until a site is done, its new views are not read at all. Weekly
+ * twins ({@link WeeklyViews}) are not filled here: they are built from the daily views once these are complete.
  */
 @Service
 public class RollupFill {
@@ -100,45 +100,37 @@ public class RollupFill {
                 siteId, siteId, siteId, siteId);
         LocalDate first = min(day(range.get("r_min")), day(range.get("s_min")));
         LocalDate last = max(day(range.get("r_max")), day(range.get("s_max")));
-        // weekly twins are filled a whole week (Monday to Sunday) at a time: their cells sum the week's days
-        boolean weekly = sessionViews.stream().anyMatch(Cuboid::weekly) || pageViews.stream().anyMatch(Cuboid::weekly);
-        int step = weekly ? 7 : 1;
         long started = System.nanoTime();
         int days = 0;
         long total = 0;
         LocalDate lastIncomplete = null;
-        for (LocalDate d = first == null || !weekly ? first : Cuboid.monday(first); d != null && !d.isAfter(last);
-             d = d.plusDays(step)) {
-            LocalDate from = d;
-            LocalDate to = d.plusDays(step - 1L);
+        for (LocalDate d = first; d != null && !d.isAfter(last); d = d.plusDays(1)) {
+            LocalDate day = d;
             long[] counts = tx.execute(status -> {
                 if (!sessions.lockSite(siteId)) {
                     return null;
                 }
-                writer.clear(siteId, sessionIds, pageIds, from, to);
+                writer.clear(siteId, sessionIds, pageIds, day, day);
                 Contributions c = new Contributions(sessionViews, pageViews);
-                long n = 0;
-                for (LocalDate day = from; !day.isAfter(to); day = day.plusDays(1)) {
-                    n += sessions.forEachInRollups(siteId, day, s -> c.add(ImportedPages.withPages(s), +1));
-                }
+                long n = sessions.forEachInRollups(siteId, day, s -> c.add(ImportedPages.withPages(s), +1));
                 writer.insert(siteId, c);
                 Long held = jdbc.queryForObject("""
                         SELECT COALESCE(SUM(sessions), 0) FROM rollup_session
-                        WHERE site_id = ? AND cuboid = 0 AND local_day BETWEEN ? AND ?""", Long.class, siteId,
-                        Date.valueOf(from), Date.valueOf(to));
+                        WHERE site_id = ? AND cuboid = 0 AND local_day = ?""", Long.class, siteId, Date.valueOf(day));
                 return new long[]{n, held == null ? 0 : held};
             });
             if (counts == null) {
                 break; // the site was deleted meanwhile; its rollup_fill row went with it
             }
-            days += step;
+            days++;
             total += counts[0];
             if (counts[0] != counts[1]) {
-                lastIncomplete = to;
+                lastIncomplete = day;
             }
         }
         LocalDate completeFrom = lastIncomplete == null ? null : lastIncomplete.plusDays(1);
-        // twins built meanwhile summed the new views while they were empty: drop them, the sessionizer rebuilds them
+        // weekly twins built meanwhile summed the new views while they were filling: drop them before the views are
+        // read; the sessionizer's next run builds them again
         tx.executeWithoutResult(status -> {
             sessions.lockSite(siteId);
             writer.forgetWeeks(siteId);
