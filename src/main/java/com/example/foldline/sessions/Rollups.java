@@ -157,6 +157,7 @@ public class Rollups {
     private List<Cuboid.Part> parts(long siteId, List<Cuboid> views, Cuboid daily, Predicate<Cuboid> usable,
                                     SegmentFilter filter, boolean byDay) {
         Optional<Cuboid> twin = byDay ? Optional.empty() : Cuboid.twin(views, daily, usable);
+        // without a twin, or under 7 days (no whole week), skip the look-up of the built weeks
         if (twin.isEmpty() || filter.to().toEpochDay() - filter.from().toEpochDay() < 6) {
             return List.of(new Cuboid.Part(daily, filter.from(), filter.to()));
         }
